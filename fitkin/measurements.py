@@ -1,0 +1,125 @@
+"""Measured transport data in SI units: the plain data that flows from io to inference.
+
+A :class:`PropertySeries` holds every point of one property read from one file; a
+:class:`MeasuredTable` is everything read from one file. Arrays are 1-D and of equal length.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+import numpy as np
+
+__all__ = ["PROPERTY_KINDS", "SI_UNITS", "PropertySeries", "MeasuredTable", "combine_series"]
+
+#: Property kinds fitkin can read and fit, with their SI units.
+SI_UNITS = {
+    "viscosity": "Pa s",
+    "conductivity": "W/(m K)",
+}
+PROPERTY_KINDS = tuple(SI_UNITS)
+
+
+@dataclass(frozen=True)
+class PropertySeries:
+    """All measured points of one property from one file, converted to SI.
+
+    Attributes
+    ----------
+    kind : one of :data:`PROPERTY_KINDS`.
+    temperature : (n,) K.
+    value : (n,) SI (Pa s for viscosity, W/(m K) for conductivity).
+    uncertainty : (n,) absolute standard uncertainty u(value) in SI; NaN where not stated.
+    pressure : (n,) Pa; NaN where not stated.
+    source : (n,) str labels of the instrument or paper; the file name where no column gives one.
+    rows : (n,) int, the row of each point in its file (header = row 1).
+    file : the file's path as given.
+    unit : the unit text of the value column as found in the header.
+    uncertainty_kind : "absolute", "relative" or "none".
+    """
+
+    kind: str
+    temperature: np.ndarray
+    value: np.ndarray
+    uncertainty: np.ndarray
+    pressure: np.ndarray
+    source: np.ndarray
+    rows: np.ndarray
+    file: str
+    unit: str
+    uncertainty_kind: str
+
+    def __post_init__(self):
+        if self.kind not in PROPERTY_KINDS:
+            raise ValueError(f"unknown property kind {self.kind!r}; expected one of {PROPERTY_KINDS}")
+        n = len(self.temperature)
+        for name in ("value", "uncertainty", "pressure", "source", "rows"):
+            if len(getattr(self, name)) != n:
+                raise ValueError(f"PropertySeries.{name} has length {len(getattr(self, name))}, expected {n}")
+
+    def __len__(self) -> int:
+        return len(self.temperature)
+
+    @property
+    def has_uncertainty(self) -> bool:
+        return bool(np.all(np.isfinite(self.uncertainty)))
+
+
+@dataclass(frozen=True)
+class MeasuredTable:
+    """Everything read from one file.
+
+    Attributes
+    ----------
+    path : the file's path as given.
+    sha256 : hex digest of the file's bytes (provenance).
+    series : one :class:`PropertySeries` per property found.
+    warnings : non-fatal findings (for example points above the dilute-gas pressure limit).
+    columns : the header cells as found, for the record.
+    """
+
+    path: str
+    sha256: str
+    series: tuple[PropertySeries, ...]
+    warnings: tuple[str, ...] = ()
+    columns: tuple[str, ...] = field(default=())
+
+    def get(self, kind: str) -> PropertySeries | None:
+        for s in self.series:
+            if s.kind == kind:
+                return s
+        return None
+
+
+def combine_series(tables: list[MeasuredTable] | tuple[MeasuredTable, ...], kind: str) -> PropertySeries | None:
+    """Concatenate the series of one kind from several tables (None if no table has it).
+
+    ``file`` of the result is the files joined by ', '; ``unit`` and ``uncertainty_kind``
+    are joined likewise when they differ.
+    """
+    parts = [t.get(kind) for t in tables]
+    parts = [p for p in parts if p is not None and len(p)]
+    if not parts:
+        return None
+    if len(parts) == 1:
+        return parts[0]
+
+    def joined(attr):
+        seen = []
+        for p in parts:
+            v = getattr(p, attr)
+            if v not in seen:
+                seen.append(v)
+        return ", ".join(seen)
+
+    return PropertySeries(
+        kind=kind,
+        temperature=np.concatenate([p.temperature for p in parts]),
+        value=np.concatenate([p.value for p in parts]),
+        uncertainty=np.concatenate([p.uncertainty for p in parts]),
+        pressure=np.concatenate([p.pressure for p in parts]),
+        source=np.concatenate([np.asarray(p.source, dtype=object) for p in parts]),
+        rows=np.concatenate([p.rows for p in parts]),
+        file=joined("file"),
+        unit=joined("unit"),
+        uncertainty_kind=joined("uncertainty_kind"),
+    )
