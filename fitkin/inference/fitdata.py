@@ -1,0 +1,94 @@
+"""The measurements of one fit, stacked into flat arrays (plain data for the likelihood)."""
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from ..errors import FitError
+from ..measurements import PROPERTY_KINDS
+
+__all__ = ["FitData"]
+
+
+@dataclass(frozen=True)
+class FitData:
+    """All points entering a fit, of every property, as arrays of equal length n.
+
+    Attributes
+    ----------
+    kind : (n,) str, property kind of each point.
+    temperature : (n,) K.   value : (n,) SI.   uncertainty : (n,) SI absolute, NaN if not stated.
+    pressure : (n,) Pa or NaN.   source : (n,) str.   rows : (n,) int row in its file.
+    file : (n,) str file each point came from.
+    weighted : True when every point has a stated uncertainty; otherwise the fit uses
+        equal relative weights for all points.
+    """
+
+    kind: np.ndarray
+    temperature: np.ndarray
+    value: np.ndarray
+    uncertainty: np.ndarray
+    pressure: np.ndarray
+    source: np.ndarray
+    rows: np.ndarray
+    file: np.ndarray
+    weighted: bool
+
+    @classmethod
+    def from_tables(cls, tables, kinds=None) -> "FitData":
+        """Stack the series of ``tables`` (MeasuredTable sequence), keeping ``kinds`` (default all)."""
+        kinds = tuple(kinds) if kinds else PROPERTY_KINDS
+        unknown = set(kinds) - set(PROPERTY_KINDS)
+        if unknown:
+            raise FitError(f"cannot fit property {', '.join(sorted(unknown))}; "
+                           f"fitkin fits {', '.join(PROPERTY_KINDS)}")
+        parts = []
+        for t in tables:
+            for s in t.series:
+                if s.kind in kinds and len(s):
+                    parts.append(s)
+        if not parts:
+            raise FitError("no measured points of " + " or ".join(kinds) + " to fit")
+        cat = lambda attr, dtype=None: np.concatenate(  # noqa: E731
+            [np.asarray(getattr(p, attr), dtype=dtype) for p in parts])
+        unc = cat("uncertainty", float)
+        return cls(
+            kind=np.concatenate([np.full(len(p), p.kind, dtype=object) for p in parts]),
+            temperature=cat("temperature", float),
+            value=cat("value", float),
+            uncertainty=unc,
+            pressure=cat("pressure", float),
+            source=cat("source", object),
+            rows=cat("rows", int),
+            file=np.concatenate([np.full(len(p), p.file, dtype=object) for p in parts]),
+            weighted=bool(np.all(np.isfinite(unc) & (unc > 0))),
+        )
+
+    def __len__(self) -> int:
+        return len(self.temperature)
+
+    @property
+    def kinds(self) -> tuple[str, ...]:
+        return tuple(k for k in PROPERTY_KINDS if np.any(self.kind == k))
+
+    def mask(self, kind: str) -> np.ndarray:
+        return self.kind == kind
+
+    @property
+    def sigma_y(self) -> np.ndarray:
+        """The standard deviation used in the residuals: u(value) when weighted, else |value|
+        (equal relative weights, so residuals are relative deviations)."""
+        return self.uncertainty if self.weighted else np.abs(self.value)
+
+    def summary(self) -> dict:
+        """Per-kind count and temperature range, for outputs."""
+        out = {}
+        for k in self.kinds:
+            m = self.mask(k)
+            out[k] = {"points": int(m.sum()), "T_min_K": float(self.temperature[m].min()),
+                      "T_max_K": float(self.temperature[m].max()),
+                      "sources": sorted(set(map(str, self.source[m])))}
+        return out
+
+

@@ -1,0 +1,180 @@
+"""Weighted least squares of potential parameters to transport data, with lmfit.
+
+Residuals are (model − data)/u(data) when every point states an uncertainty; otherwise the
+fit uses equal relative weights, residual = (model − data)/data, and the standard errors are
+scaled by the reduced χ² (the data's own scatter stands in for the unknown uncertainty).
+With stated uncertainties the covariance is not rescaled, and a χ² test says whether the
+uncertainties and the model agree.
+"""
+from __future__ import annotations
+
+import lmfit
+import numpy as np
+from scipy import stats
+
+from ..errors import FitError, FitkinError, OutOfRangeError
+from ..species import Gas
+from ..theory.quantum import QUANTUM_WARNING_RATIO, thermal_wavelength_ratio
+from .fitdata import FitData
+from .model import ANGSTROM, ForwardModel
+from .result import PARAMETER_UNITS, FitResult, ParameterEstimate
+from .start import epsilon_bounds, starting_values
+
+__all__ = ["fit_least_squares", "SHAPE_BOUNDS", "SIGMA_BOUNDS_ANGSTROM", "diagnose"]
+
+SIGMA_BOUNDS_ANGSTROM = (1.0, 30.0)
+#: Bounds of free shape parameters: Mie repulsive exponent n, exp-6 steepness α.
+SHAPE_BOUNDS = {"n": (7.0, 40.0), "alpha": (10.0, 20.0)}
+#: Coarse values tried for free shape parameters when looking for a start.
+SHAPE_START_GRID = {"n": (9.0, 12.0, 16.0, 24.0), "alpha": (12.0, 14.0, 16.0)}
+
+CORRELATION_WARNING = 0.98
+NARROW_RANGE_RATIO = 1.5
+
+
+def _residual_function(model: ForwardModel, data: FitData):
+    y, sy = data.value, data.sigma_y
+
+    def residual(params: lmfit.Parameters):
+        theta = params.valuesdict()
+        try:
+            return (model.predict(theta, data) - y) / sy
+        except OutOfRangeError:
+            return np.full(len(y), 1e6)
+    return residual
+
+
+def _start(model: ForwardModel, data: FitData):
+    grids = [SHAPE_START_GRID[name] for name in model.free_shape]
+    best = None
+    for combo in (np.array(np.meshgrid(*grids)).reshape(len(grids), -1).T if grids else [()]):
+        shape = dict(zip(model.free_shape, combo))
+        try:
+            sig, eps, chi2 = starting_values(model, data, shape)
+        except FitError:
+            continue
+        if best is None or chi2 < best[2]:
+            best = (sig, eps, chi2, shape)
+    if best is None:
+        raise FitError("no starting point found for any shape on the start grid")
+    return best
+
+
+def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(), order: int = 3,
+                      collision: str = "computed", fixed: dict | None = None) -> FitResult:
+    """Fit σ, ε/k (and any ``free_shape`` parameters) to ``data``.
+
+    Parameters
+    ----------
+    data : the stacked measurements.
+    gas : gives the molar mass.
+    potential : the potential shape (default Lennard-Jones 12-6).
+    free_shape : names of shape parameters to vary, e.g. ``("n",)`` for a Mie potential.
+    order : Sonine approximation of the Chapman–Enskog solution.
+    collision : "computed" or "neufeld" (see :class:`fitkin.theory.transport.TransportModel`).
+    fixed : optional {"sigma": Å, "epsilon_over_k": K} held fixed at the given values.
+
+    Returns
+    -------
+    FitResult with σ in Å and ε/k in K.
+    """
+    if potential is None:
+        from ..potentials import LennardJones
+        potential = LennardJones()
+    fixed = dict(fixed or {})
+    model = ForwardModel(gas=gas, potential=potential, free_shape=tuple(free_shape), order=order,
+                         collision=collision)
+    n_free = 2 + len(model.free_shape) - len(fixed)
+    if len(data) <= n_free:
+        raise FitError(f"{len(data)} points cannot determine {n_free} parameters; give more points")
+
+    sig0, eps0, _, shape0 = _start(model, data)
+    eps_lo, eps_hi = epsilon_bounds(data, model.transport(shape0 or None).t_star_range)
+    params = lmfit.Parameters()
+    params.add("sigma", value=fixed.get("sigma", sig0), min=SIGMA_BOUNDS_ANGSTROM[0],
+               max=SIGMA_BOUNDS_ANGSTROM[1], vary="sigma" not in fixed)
+    params.add("epsilon_over_k", value=fixed.get("epsilon_over_k", min(max(eps0, eps_lo), eps_hi)),
+               min=eps_lo, max=eps_hi, vary="epsilon_over_k" not in fixed)
+    for name in model.free_shape:
+        lo, hi = SHAPE_BOUNDS.get(name, (-np.inf, np.inf))
+        params.add(name, value=shape0[name], min=lo, max=hi)
+
+    try:
+        out = lmfit.minimize(_residual_function(model, data), params, method="least_squares",
+                             scale_covar=not data.weighted, x_scale="jac")
+    except FitkinError:
+        raise
+    except (ValueError, FloatingPointError) as exc:  # numerical failure inside the optimiser
+        raise FitError(f"the least-squares fit failed numerically: {exc}") from exc
+
+    names = tuple(n for n, p in out.params.items() if p.vary)
+    if out.covar is not None:
+        cov = np.asarray(out.covar, dtype=float)
+    else:
+        cov = np.full((len(names), len(names)), np.nan)
+    estimates = {}
+    for n, p in out.params.items():
+        err = float(p.stderr) if (p.vary and p.stderr is not None) else (float("nan") if p.vary else 0.0)
+        estimates[n] = ParameterEstimate(n, float(p.value), err, PARAMETER_UNITS.get(n, "1"), bool(p.vary))
+    theta = {n: p.value for n, p in out.params.items()}
+    prediction = model.predict(theta, data)
+    chi2 = float(np.sum(((prediction - data.value) / data.sigma_y) ** 2))
+    result = FitResult(
+        gas=gas,
+        model_settings={**model.transport(theta).describe(), "free_shape": list(model.free_shape),
+                        "weighting": "stated uncertainties" if data.weighted else "equal relative weights"},
+        parameters=estimates, names=names, covariance=cov, chi2=chi2, dof=len(data) - len(names),
+        weighted=data.weighted, success=bool(out.success), message=str(out.message),
+        evaluations=int(out.nfev), prediction=prediction, data=data,
+        extra={"start": {"sigma": sig0, "epsilon_over_k": eps0, **shape0},
+               "bounds": {n: [float(p.min), float(p.max)] for n, p in out.params.items()}},
+    )
+    return _with_warnings(result, diagnose(result))
+
+
+def _with_warnings(result: FitResult, warnings: list[str]) -> FitResult:
+    from dataclasses import replace
+    return replace(result, warnings=tuple(warnings))
+
+
+def diagnose(result: FitResult) -> list[str]:
+    """Plain-language warnings about a fit: degeneracy, poor fit, bounds, quantum regime."""
+    warn = []
+    data = result.data
+    if not result.success:
+        warn.append(f"the optimiser reports it did not converge: {result.message}")
+    names = list(result.names)
+    if "sigma" in names and "epsilon_over_k" in names:
+        r = result.correlation[names.index("sigma"), names.index("epsilon_over_k")]
+        if not np.isfinite(r):
+            warn.append("no covariance could be estimated: the data do not determine the parameters")
+        elif abs(r) > CORRELATION_WARNING:
+            warn.append(f"σ and ε/k are almost fully correlated (r = {r:+.3f}): these data cannot separate "
+                        "them; widen the temperature range or fit another property jointly")
+    ratio = data.temperature.max() / data.temperature.min()
+    if ratio < NARROW_RANGE_RATIO:
+        warn.append(f"the measured temperatures span only a factor {ratio:.2f} "
+                    f"({data.temperature.min():.1f}–{data.temperature.max():.1f} K): σ and ε/k are weakly "
+                    "determined separately, and predictions outside this range are extrapolations")
+    if result.dof > 0:
+        if result.weighted:
+            p = stats.chi2.sf(result.chi2, result.dof)
+            if p < 1e-3:
+                warn.append(f"poor fit: reduced χ² = {result.reduced_chi2:.2f} on {result.dof} degrees of "
+                            f"freedom (p = {p:.1e}); the stated uncertainties are too small or the potential "
+                            "shape cannot describe the data; standard errors are not rescaled")
+        else:
+            rms = float(np.sqrt(np.mean(result.residual_percent ** 2)))
+            warn.append(f"no uncertainties stated: equal relative weights used, standard errors scaled by the "
+                        f"scatter (rms deviation {rms:.2f} %)")
+    for n, (lo, hi) in result.extra.get("bounds", {}).items():
+        p = result.parameters[n]
+        if p.vary and (np.isclose(p.value, lo, rtol=1e-4) or np.isclose(p.value, hi, rtol=1e-4)):
+            warn.append(f"parameter {n} = {p.value:.4g} sits at its bound [{lo:.4g}, {hi:.4g}]; "
+                        "the true optimum lies outside what was allowed")
+    sigma = result.parameters["sigma"].value * ANGSTROM
+    lam = thermal_wavelength_ratio(data.temperature.min(), result.gas.molar_mass, sigma)
+    if lam > QUANTUM_WARNING_RATIO:
+        warn.append(f"quantum regime: at {data.temperature.min():.1f} K the thermal de Broglie wavelength is "
+                    f"{lam:.2f} σ; classical collision integrals are not accurate there")
+    return warn

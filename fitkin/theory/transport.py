@@ -1,0 +1,130 @@
+"""A transport model: one potential shape, a collision-integral source and a Sonine order.
+
+:class:`TransportModel` turns (σ, ε/k) and a gas's molar mass into μ(T), monatomic k(T) and
+D(T, p). It is the only place where the collision integrals, the Chapman–Enskog formulas and
+the higher-approximation corrections meet.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from functools import cached_property
+
+import numpy as np
+from scipy import constants
+
+from ..errors import FitkinError, OutOfRangeError
+from . import chapman_enskog as ce
+
+__all__ = ["TransportModel", "COLLISION_SOURCES"]
+
+#: Where Ω(l,s)* come from: computed from the potential, or the Neufeld et al. (1972)
+#: closed forms for Ω(1,1)* and Ω(2,2)* of the 12-6 potential (first approximation only).
+COLLISION_SOURCES = ("computed", "neufeld")
+
+
+@dataclass(frozen=True)
+class TransportModel:
+    """Chapman–Enskog transport of a dilute monatomic gas for one potential shape.
+
+    Parameters
+    ----------
+    potential : a :class:`fitkin.potentials.Potential` (shape only); default Lennard-Jones 12-6.
+    order : Sonine approximation (1 = first; 2, 3, ... higher). Default 3.
+    collision : one of :data:`COLLISION_SOURCES`.
+    """
+
+    potential: object = None
+    order: int = 3
+    collision: str = "computed"
+    _cache: dict = field(default_factory=dict, init=False, repr=False, compare=False, hash=False)
+
+    def __post_init__(self):
+        if self.collision not in COLLISION_SOURCES:
+            raise FitkinError(f"unknown collision-integral source '{self.collision}'; "
+                              f"expected one of {', '.join(COLLISION_SOURCES)}")
+        if self.potential is None:
+            from ..potentials import LennardJones
+            object.__setattr__(self, "potential", LennardJones())
+        if not isinstance(self.order, int) or self.order < 1:
+            raise FitkinError(f"Sonine order must be a whole number ≥ 1, got {self.order!r}")
+        if self.collision == "neufeld":
+            if getattr(self.potential, "name", None) != "lj":
+                raise FitkinError("the Neufeld correlation exists only for the Lennard-Jones 12-6 potential")
+            if self.order != 1:
+                raise FitkinError("the Neufeld correlation gives only Ω(1,1)* and Ω(2,2)*: use order=1 "
+                                  "with it, or collision='computed' for higher approximations")
+
+    # -- collision integrals -------------------------------------------------------------
+    @cached_property
+    def _table(self):
+        from ..collision import collision_table
+        return collision_table(self.potential)
+
+    def omega(self, l: int, s: int, T_star):
+        """Ω(l,s)*(T*) from the chosen source; raises OutOfRangeError outside its range."""
+        t = np.asarray(T_star, dtype=float)
+        if self.collision == "neufeld":
+            from ..collision.correlations import NEUFELD_RANGE, neufeld_omega11, neufeld_omega22
+            lo, hi = NEUFELD_RANGE
+            if np.any(t < lo) or np.any(t > hi):
+                raise OutOfRangeError(f"reduced temperature {t.min():.3g}..{t.max():.3g} outside the "
+                                      f"Neufeld correlation's range {lo:g} ≤ T* ≤ {hi:g}")
+            if (l, s) == (1, 1):
+                return neufeld_omega11(t)
+            if (l, s) == (2, 2):
+                return neufeld_omega22(t)
+            raise FitkinError(f"the Neufeld correlation gives no Ω({l},{s})*")
+        return self._table.omega(l, s, t)
+
+    @property
+    def t_star_range(self) -> tuple[float, float]:
+        if self.collision == "neufeld":
+            from ..collision.correlations import NEUFELD_RANGE
+            return NEUFELD_RANGE
+        return tuple(self._table.t_star_range)
+
+    # -- corrections ---------------------------------------------------------------------
+    def _correction(self, which: str, T_star):
+        if self.order == 1:
+            return 1.0
+        from . import sonine
+        fn = {"viscosity": sonine.viscosity_correction,
+              "conductivity": sonine.conductivity_correction,
+              "self_diffusion": sonine.self_diffusion_correction}[which]
+        return fn(self.omega, T_star, order=self.order)
+
+    # -- properties ----------------------------------------------------------------------
+    @staticmethod
+    def reduced_temperature(T, epsilon_over_k):
+        return np.asarray(T, dtype=float) / epsilon_over_k
+
+    def viscosity(self, T, molar_mass, sigma, epsilon_over_k):
+        """μ(T) in Pa s. T in K, molar_mass kg/mol, sigma m, epsilon_over_k K."""
+        ts = self.reduced_temperature(T, epsilon_over_k)
+        return ce.viscosity_first(T, molar_mass, sigma, self.omega(2, 2, ts), self._correction("viscosity", ts))
+
+    def conductivity(self, T, molar_mass, sigma, epsilon_over_k):
+        """Translational (monatomic) thermal conductivity k(T) in W/(m K)."""
+        ts = self.reduced_temperature(T, epsilon_over_k)
+        return ce.monatomic_conductivity_first(T, molar_mass, sigma, self.omega(2, 2, ts),
+                                               self._correction("conductivity", ts))
+
+    def self_diffusion(self, T, pressure, molar_mass, sigma, epsilon_over_k):
+        """Self-diffusion coefficient D(T, p) in m²/s (ideal gas)."""
+        ts = self.reduced_temperature(T, epsilon_over_k)
+        return ce.self_diffusion_first(T, pressure, molar_mass, sigma, self.omega(1, 1, ts),
+                                       self._correction("self_diffusion", ts))
+
+    def property(self, kind: str, T, molar_mass, sigma, epsilon_over_k):
+        """Dispatch on a measurement kind ('viscosity' or 'conductivity')."""
+        if kind == "viscosity":
+            return self.viscosity(T, molar_mass, sigma, epsilon_over_k)
+        if kind == "conductivity":
+            return self.conductivity(T, molar_mass, sigma, epsilon_over_k)
+        raise FitkinError(f"no model for property '{kind}'")
+
+    def describe(self) -> dict:
+        return {"potential": getattr(self.potential, "name", str(self.potential)),
+                "shape_parameters": dict(getattr(self.potential, "shape_parameters", {})),
+                "sonine_order": self.order, "collision_integrals": self.collision,
+                "k_B": constants.k, "N_A": constants.N_A}
