@@ -1,0 +1,131 @@
+"""The ``fitkin`` command line: parse arguments, call the library, format the outcome.
+
+Every error a user can cause ends as one message on stderr and exit status 2; nothing here
+does physics or reads tables itself.
+"""
+from __future__ import annotations
+
+import argparse
+import os
+import sys
+import warnings
+from pathlib import Path
+
+from . import __version__
+from .errors import FitkinError
+
+__all__ = ["main", "build_parser"]
+
+EXIT_OK, EXIT_USER, EXIT_INTERNAL = 0, 2, 3
+
+_EPILOG_CHECK = """examples:
+  fitkin check viscosity.csv
+  fitkin check run1.csv run2.xlsx --sheet "Run 2"
+  fitkin check visc.csv --unit T=degC --unit viscosity="uPa s"   (for headers without units)
+"""
+_EPILOG_FIT = """examples:
+  fitkin fit argon_visc.csv --formula Ar --out fit-argon
+  fitkin fit visc.csv cond.csv --molar-mass "83.798 g/mol" --name krypton --out fit-kr
+  fitkin fit visc.csv --formula Ar --property viscosity --order 2 --out fit2 --force
+"""
+_EPILOG_PREDICT = """examples:
+  fitkin predict fit-argon/parameters.json --temperatures 200:1000:100
+  fitkin predict fit-argon/parameters.json --temperatures 300,400,500 --pressure "1 bar" --out table.csv
+  fitkin predict fit-argon/parameters.json --temperatures 250:350:25 --band 0.95 --format json
+"""
+_EPILOG_DEMO = """examples:
+  fitkin demo                       (writes ./fitkin-demo/)
+  fitkin demo --out /tmp/demo --force
+"""
+
+
+def _add_table_options(p: argparse.ArgumentParser) -> None:
+    p.add_argument("files", nargs="+", metavar="FILE", help="measured tables (.csv, .tsv, .txt, .xlsx)")
+    p.add_argument("--sheet", help="worksheet of .xlsx files to read (default: the first)")
+    p.add_argument("--unit", action="append", default=[], metavar="QUANTITY=UNIT",
+                   help="unit of a column whose header gives none, e.g. T=degC or viscosity='uPa s'")
+    p.add_argument("--pressure-limit", default="1 MPa", metavar="P",
+                   help="warn about points stated above this pressure (default: 1 MPa)")
+
+
+def build_parser() -> argparse.ArgumentParser:
+    parser = argparse.ArgumentParser(
+        prog="fitkin",
+        description="Fit intermolecular-potential parameters (Lennard-Jones σ and ε/k, ...) to measured "
+                    "dilute-gas viscosity and thermal conductivity, by inverting Chapman–Enskog theory.")
+    parser.add_argument("--version", action="version", version=f"fitkin {__version__}")
+    sub = parser.add_subparsers(dest="command", metavar="COMMAND")
+
+    p = sub.add_parser("check", help="read tables and report what was found, or every problem",
+                       epilog=_EPILOG_CHECK, formatter_class=argparse.RawDescriptionHelpFormatter)
+    _add_table_options(p)
+
+    p = sub.add_parser("fit", help="fit potential parameters to tables and write DIR/parameters.json",
+                       epilog=_EPILOG_FIT, formatter_class=argparse.RawDescriptionHelpFormatter)
+    _add_table_options(p)
+    gas = p.add_mutually_exclusive_group(required=True)
+    gas.add_argument("--formula", help="chemical formula of the gas, e.g. Ar, Kr, SF6")
+    gas.add_argument("--molar-mass", metavar="M", help="molar mass with unit, e.g. '39.948 g/mol'")
+    p.add_argument("--name", help="name of the gas in outputs (default: the formula)")
+    p.add_argument("--out", required=True, metavar="DIR", help="folder for parameters.json and the report")
+    p.add_argument("--force", action="store_true", help="replace existing outputs in DIR")
+    p.add_argument("--property", choices=("viscosity", "conductivity", "both"), default="both",
+                   help="which measured properties to fit (default: all found)")
+    p.add_argument("--potential", default="lj", metavar="NAME",
+                   help="pair potential: lj (Lennard-Jones 12-6, default)")
+    p.add_argument("--order", type=int, default=3, help="Sonine approximation of Chapman–Enskog theory (default 3)")
+    p.add_argument("--collision", choices=("computed", "neufeld"), default="computed",
+                   help="collision integrals computed from the potential (default) or the Neufeld et al. "
+                        "(1972) correlation (Lennard-Jones, order 1 only)")
+
+    p = sub.add_parser("predict", help="tabulate μ, k and D from a parameter file",
+                       epilog=_EPILOG_PREDICT, formatter_class=argparse.RawDescriptionHelpFormatter)
+    p.add_argument("parameters", metavar="PARAMETERS.json")
+    p.add_argument("--temperatures", "-T", required=True, metavar="LIST",
+                   help="kelvin: '300,400,500' or 'start:stop:step' (stop included), e.g. 200:1000:50")
+    p.add_argument("--pressure", default="101325 Pa", help="pressure for D (default 101325 Pa)")
+    p.add_argument("--band", type=float, metavar="P", help="add a central uncertainty band of probability P, e.g. 0.95")
+    p.add_argument("--format", choices=("csv", "json"), default="csv")
+    p.add_argument("--out", metavar="FILE", help="write here instead of standard output")
+    p.add_argument("--force", action="store_true", help="replace an existing FILE")
+
+    p = sub.add_parser("demo", help="make the synthetic sample data and fit it, end to end",
+                       epilog=_EPILOG_DEMO, formatter_class=argparse.RawDescriptionHelpFormatter)
+    p.add_argument("--out", default="fitkin-demo", metavar="DIR", help="output folder (default ./fitkin-demo)")
+    p.add_argument("--force", action="store_true", help="replace existing outputs in DIR")
+    return parser
+
+
+def main(argv: list[str] | None = None) -> int:
+    parser = build_parser()
+    args = parser.parse_args(argv)
+    if args.command is None:
+        parser.print_help()
+        return EXIT_USER
+    from . import commands
+    handler = getattr(commands, f"run_{args.command}")
+    try:
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore", RuntimeWarning)
+            return handler(args, out=sys.stdout)
+    except FitkinError as exc:
+        print(f"fitkin {args.command}: error: {exc}", file=sys.stderr)
+        return EXIT_USER
+    except KeyboardInterrupt:
+        print("fitkin: interrupted", file=sys.stderr)
+        return 130
+    except Exception as exc:  # a bug, not bad input: short message, traceback on request
+        if os.environ.get("FITKIN_DEBUG"):
+            raise
+        print(f"fitkin {args.command}: internal error: {type(exc).__name__}: {exc}\n"
+              "This is a fault in fitkin, not in your input. Run again with FITKIN_DEBUG=1 for details "
+              "and report it.", file=sys.stderr)
+        return EXIT_INTERNAL
+
+
+def _entry() -> None:  # pragma: no cover
+    sys.exit(main())
+
+
+if __name__ == "__main__":  # pragma: no cover
+    _entry()

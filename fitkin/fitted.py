@@ -1,0 +1,132 @@
+"""A fitted gas, reloaded from its parameter file, for reuse downstream.
+
+>>> gas = load_parameters("fit/parameters.json")          # doctest: +SKIP
+>>> gas.viscosity([300.0, 500.0])                         # doctest: +SKIP
+array([2.27e-05, 3.42e-05])
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from .errors import FitkinError, ParameterFileError
+from .inference.model import ANGSTROM
+from .io.parameter_file import read_parameter_file
+from .species import Gas
+from .theory.transport import TransportModel
+
+__all__ = ["FittedGas", "load_parameters", "potential_from_record"]
+
+#: Number of parameter draws used for uncertainty bands from the covariance.
+BAND_DRAWS = 400
+
+
+def potential_from_record(entry: dict):
+    """Rebuild the potential shape from the parameter file's ``potential`` entry."""
+    from . import potentials
+    families = {"lj": "LennardJones", "hs": "HardSphere", "mie": "Mie", "exp6": "ExpSix"}
+    name = entry.get("name")
+    if name not in families:
+        raise ParameterFileError(f"potential '{name}' in the parameter file is not one fitkin can rebuild "
+                                 f"(known: {', '.join(families)})")
+    cls = getattr(potentials, families[name])
+    shape = entry.get("shape_parameters") or {}
+    return cls(**shape) if shape else cls()
+
+
+@dataclass
+class FittedGas:
+    """Transport properties predicted by a saved fit. SI units: T in K, p in Pa; results in
+    Pa s, W/(m K), m²/s.
+
+    With ``band=0.95`` (any central probability), a method returns (median, lower, upper)
+    from parameter draws out of the fit's covariance (seeded, :data:`BAND_DRAWS` draws).
+    """
+
+    record: dict
+    path: str | None = None
+    _model: TransportModel = field(init=False, repr=False)
+
+    def __post_init__(self):
+        r = self.record
+        self.gas = Gas.from_dict(r["gas"])
+        theory = r["theory"]
+        self._model = TransportModel(potential_from_record(r["potential"]),
+                                     order=int(theory.get("sonine_order") or 1),
+                                     collision=theory.get("collision_integrals") or "computed")
+        self.free_shape = list(r["potential"].get("free_shape") or [])
+
+    # -- parameters --------------------------------------------------------------------
+    @property
+    def sigma(self) -> float:
+        """σ in metres."""
+        return self.record["parameters"]["sigma"]["value"] * ANGSTROM
+
+    @property
+    def epsilon_over_k(self) -> float:
+        """ε/k in kelvin."""
+        return self.record["parameters"]["epsilon_over_k"]["value"]
+
+    @property
+    def temperature_range(self) -> tuple[float, float]:
+        """Measured temperature range (K) of the fit."""
+        return tuple(self.record["data"]["temperature_range_K"])
+
+    def _theta(self) -> dict:
+        return {k: v["value"] for k, v in self.record["parameters"].items()}
+
+    def _draws(self, n: int, seed: int = 20261201):
+        cov = self.record.get("covariance", {})
+        names = cov.get("names") or []
+        matrix = np.array(cov.get("matrix") or [], dtype=float)
+        if not names or matrix.size == 0 or not np.all(np.isfinite(matrix)):
+            raise FitkinError("this parameter file has no usable covariance, so no band can be computed")
+        mean = np.array([self.record["parameters"][k]["value"] for k in names])
+        rng = np.random.default_rng(seed)
+        samples = rng.multivariate_normal(mean, matrix, size=n, method="eigh")
+        base = self._theta()
+        return [{**base, **dict(zip(names, row))} for row in samples]
+
+    def _evaluate(self, kind: str, theta: dict, T, pressure=None):
+        from .inference.model import with_shape
+        shape = {k: theta[k] for k in self.free_shape}
+        model = self._model if not shape else TransportModel(
+            with_shape(self._model.potential, **shape), order=self._model.order, collision=self._model.collision)
+        sigma = theta["sigma"] * ANGSTROM
+        eps = theta["epsilon_over_k"]
+        M = self.gas.molar_mass
+        if kind == "self_diffusion":
+            return model.self_diffusion(T, pressure, M, sigma, eps)
+        return model.property(kind, T, M, sigma, eps)
+
+    def predict(self, kind: str, T, pressure=None, band: float | None = None):
+        """Property ``kind`` ('viscosity', 'conductivity', 'self_diffusion') at temperatures T."""
+        T = np.atleast_1d(np.asarray(T, dtype=float))
+        if np.any(~np.isfinite(T)) or np.any(T <= 0):
+            raise FitkinError("temperatures must be finite and above 0 K")
+        if band is None:
+            return self._evaluate(kind, self._theta(), T, pressure)
+        if not 0 < band < 1:
+            raise FitkinError(f"band must be a probability between 0 and 1, got {band}")
+        draws = np.array([self._evaluate(kind, th, T, pressure) for th in self._draws(BAND_DRAWS)])
+        q = 0.5 - band / 2, 0.5, 0.5 + band / 2
+        lo, med, hi = np.quantile(draws, q, axis=0)
+        return med, lo, hi
+
+    def viscosity(self, T, band: float | None = None):
+        """μ(T) in Pa s."""
+        return self.predict("viscosity", T, band=band)
+
+    def conductivity(self, T, band: float | None = None):
+        """Monatomic (translational) thermal conductivity k(T) in W/(m K)."""
+        return self.predict("conductivity", T, band=band)
+
+    def self_diffusion(self, T, p=101325.0, band: float | None = None):
+        """Self-diffusion coefficient D(T, p) in m²/s at pressure p in Pa."""
+        return self.predict("self_diffusion", T, pressure=p, band=band)
+
+
+def load_parameters(path) -> FittedGas:
+    """Read a parameter file written by ``fitkin fit`` and return a :class:`FittedGas`."""
+    return FittedGas(read_parameter_file(path), path=str(path))

@@ -1,0 +1,64 @@
+"""Plain-text summaries of fits and tables for the terminal (formatting only, no physics)."""
+from __future__ import annotations
+
+import numpy as np
+
+__all__ = ["format_fit_summary", "format_estimate"]
+
+_LABELS = {"sigma": "σ", "epsilon_over_k": "ε/k", "n": "n", "alpha": "α"}
+_UNIT_TEXT = {"angstrom": "Å", "K": "K", "1": ""}
+
+
+def format_estimate(value: float, stderr: float) -> str:
+    """'3.6512 ± 0.0041' with the error given to two significant figures."""
+    if not np.isfinite(stderr) or stderr <= 0:
+        return f"{value:.5g}"
+    digits = max(0, -int(np.floor(np.log10(stderr))) + 1)
+    return f"{value:.{digits}f} ± {stderr:.{digits}f}"
+
+
+def format_fit_summary(result, record_path=None, truth: dict | None = None) -> str:
+    """A readable account of a fit: data, parameters, correlation, quality, warnings."""
+    lines = [f"Gas: {result.gas.name}  (M = {result.gas.molar_mass * 1e3:.4f} g/mol)"]
+    s = result.model_settings
+    lines.append(f"Model: potential {s.get('potential')} {s.get('shape_parameters') or ''}, "
+                 f"Chapman–Enskog order {s.get('sonine_order')}, collision integrals {s.get('collision_integrals')}")
+    for kind, info in result.data.summary().items():
+        lines.append(f"Data: {kind}: {info['points']} points, {info['T_min_K']:.1f}–{info['T_max_K']:.1f} K, "
+                     f"sources {', '.join(info['sources'])}")
+    lines.append(f"Weighting: {s.get('weighting')}")
+    lines.append("")
+    header = f"  {'parameter':<10} {'estimate ± standard error':>28}"
+    if truth:
+        header += f"  {'generated from':>15}  {'deviation/σ':>11}"
+    lines.append(header)
+    for name, p in result.parameters.items():
+        unit = _UNIT_TEXT.get(p.unit, p.unit)
+        text = f"{format_estimate(p.value, p.stderr)} {unit}".rstrip()
+        row = f"  {_LABELS.get(name, name):<10} {text:>28}"
+        if not p.vary:
+            row += "  (fixed)"
+        if truth and name in truth:
+            z = (p.value - truth[name]) / p.stderr if p.stderr and np.isfinite(p.stderr) else float("nan")
+            row += f"  {truth[name]:>13g} {unit:<1}  {z:>+11.2f}"
+        lines.append(row)
+    names = list(result.names)
+    if "sigma" in names and "epsilon_over_k" in names:
+        r = result.correlation[names.index("sigma"), names.index("epsilon_over_k")]
+        lines.append(f"  correlation(σ, ε/k) = {r:+.3f}")
+    dev = result.residual_percent
+    lines.append("")
+    lines.append(f"Fit: χ² = {result.chi2:.2f} on {result.dof} degrees of freedom "
+                 f"(reduced χ² = {result.reduced_chi2:.2f}); deviations rms {np.sqrt(np.mean(dev**2)):.3f} %, "
+                 f"largest {np.max(np.abs(dev)):.3f} %")
+    for kind in result.data.kinds:
+        m = result.data.mask(kind)
+        lines.append(f"  {kind:<13} rms {np.sqrt(np.mean(dev[m]**2)):.3f} %, largest {np.max(np.abs(dev[m])):.3f} %")
+    if result.warnings:
+        lines.append("")
+        lines.append("Warnings:")
+        lines += [f"  - {w}" for w in result.warnings]
+    if record_path:
+        lines.append("")
+        lines.append(f"Parameters written to {record_path}")
+    return "\n".join(lines)
