@@ -1,0 +1,250 @@
+"""A pair potential given as a table U(r), with smooth interpolation and analytic tails."""
+from __future__ import annotations
+
+import hashlib
+import re
+from pathlib import Path
+
+import numpy as np
+from scipy import constants
+from scipy.interpolate import CubicSpline
+from scipy.optimize import brentq, minimize_scalar
+
+from fitkin.errors import InputError, PotentialError
+from fitkin.potentials.base import Potential
+
+__all__ = ["Tabulated", "MIN_TABLE_POINTS"]
+
+#: Fewest points a table may have: the spline needs a few points on the repulsive wall,
+#: around the well and on the attractive tail.
+MIN_TABLE_POINTS = 10
+
+
+def _energy_over_k(values: np.ndarray, unit_text: str, *, file=None, column=None) -> np.ndarray:
+    """Convert energies in ``unit_text`` to U/k_B in kelvin (temperature, energy, molar
+    energy or wavenumber units are accepted)."""
+    from fitkin.units import parse_unit, ureg
+
+    unit = parse_unit(unit_text, file=file, column=column)
+    q = ureg.Quantity(np.asarray(values, dtype=float), unit)
+    dim = unit.dimensionality
+    if dim == ureg.kelvin.dimensionality:
+        return np.asarray(q.to("K").magnitude, dtype=float)
+    if dim == ureg.joule.dimensionality:
+        return np.asarray(q.to("J").magnitude, dtype=float) / constants.k
+    if dim == (ureg.joule / ureg.mol).dimensionality:
+        return np.asarray(q.to("J/mol").magnitude, dtype=float) / constants.R
+    if dim == (1 / ureg.meter).dimensionality:
+        return np.asarray(q.to("1/m").magnitude, dtype=float) * constants.h * constants.c / constants.k
+    from fitkin.errors import UnitError
+    raise UnitError(f"'{unit_text}' is not an energy unit (K, J, kJ/mol, cm^-1, meV, ...)",
+                    file=file, column=column)
+
+
+def _length_m(values: np.ndarray, unit_text: str, *, file=None, column=None) -> np.ndarray:
+    from fitkin.units import parse_unit, to_si
+
+    unit = parse_unit(unit_text, file=file, column=column)
+    return to_si(values, unit, "m", file=file, column=column)
+
+
+class Tabulated(Potential):
+    r"""Pair potential from a table of U(r), reduced by its own zero crossing and well depth.
+
+    The table is interpolated by a cubic spline of r^6 U(r) in r (smooth, and nearly flat
+    on the dispersion tail).  Beyond the last point the tail is
+    U = −C6/r^6 − C8/r^8, matched in value and slope at the last point (value only,
+    C8 = 0, if the matched C6 would not be positive); inside the first point the wall is
+    continued as A r^-p, matched in value and slope.
+
+    Parameters
+    ----------
+    r : array_like (N,), strictly increasing distances, in ``r_unit``.
+    U : array_like (N,), potential energies in ``energy_unit`` (``"K"`` means U/k_B).
+    r_unit, energy_unit : unit text read by :func:`fitkin.units.parse_unit`.
+    source : free text naming where the table came from (kept for reports).
+
+    Attributes
+    ----------
+    sigma : zero crossing σ of the table, m.
+    epsilon_over_k : well depth ε/k_B of the table, K.
+
+    Raises
+    ------
+    PotentialError : fewer than :data:`MIN_TABLE_POINTS` points, r not increasing, no well
+        (no negative value), no repulsive wall (first value not positive), a wall that is not
+        monotonic decreasing up to the minimum, or a tail that is not attractive.
+
+    References
+    ----------
+    Spline: de Boor, A Practical Guide to Splines (Springer, 1978), ch. IV; the dispersion
+    tail form −C6/r^6 − C8/r^8: Hirschfelder, Curtiss & Bird (1954), §13.3.
+    """
+
+    name = "tabulated"
+
+    def __init__(self, r, U, *, r_unit: str = "angstrom", energy_unit: str = "K",
+                 source: str | None = None):
+        r_m = _length_m(np.asarray(r, dtype=float).ravel(), r_unit)
+        u_k = _energy_over_k(np.asarray(U, dtype=float).ravel(), energy_unit)
+        self.source = source
+        self._setup(r_m, u_k)
+
+    # ------------------------------------------------------------------------- checks
+    def _setup(self, r: np.ndarray, u: np.ndarray) -> None:
+        where = f" ({self.source})" if self.source else ""
+        if r.shape != u.shape:
+            raise PotentialError(f"tabulated potential{where}: r has {r.size} values but U has {u.size}")
+        if r.size < MIN_TABLE_POINTS:
+            raise PotentialError(
+                f"tabulated potential{where}: {r.size} points, at least {MIN_TABLE_POINTS} are "
+                "needed (some on the repulsive wall, around the well and on the attractive tail)")
+        if not (np.all(np.isfinite(r)) and np.all(np.isfinite(u))):
+            raise PotentialError(f"tabulated potential{where}: non-finite value in the table")
+        if np.any(r <= 0) or np.any(np.diff(r) <= 0):
+            raise PotentialError(f"tabulated potential{where}: distances must be positive and strictly increasing")
+        if u.min() >= 0:
+            raise PotentialError(f"tabulated potential{where}: no well (no negative energy); "
+                                 "use HardSphere or a purely repulsive model instead")
+        if u[0] <= 0:
+            raise PotentialError(f"tabulated potential{where}: the first point must lie on the "
+                                 "repulsive wall (U > 0) so that the zero crossing σ is inside the table")
+        i_min = int(np.argmin(u))
+        if i_min == r.size - 1:
+            raise PotentialError(f"tabulated potential{where}: the minimum is the last point; "
+                                 "the table must extend onto the attractive tail")
+        wall = u[: i_min + 1]
+        if np.any(np.diff(wall) >= 0):
+            bad = int(np.argmax(np.diff(wall) >= 0)) + 1
+            raise PotentialError(f"tabulated potential{where}: the repulsive wall is not monotonic "
+                                 f"(U rises again at point {bad + 1} of the table, before the minimum)")
+        if u[-1] >= 0:
+            raise PotentialError(f"tabulated potential{where}: the last point must be attractive (U < 0)")
+        # reduce: zero crossing and well depth from the spline
+        spline = CubicSpline(r, r ** 6 * u, bc_type="not-a-knot")
+        energy = lambda x: float(spline(x)) / x ** 6  # noqa: E731
+        i0 = int(np.argmax(u <= 0))
+        sigma = brentq(energy, r[i0 - 1], r[i0], xtol=1e-16 * r[i0], rtol=1e-14)
+        lo, hi = r[max(i_min - 1, 0)], r[i_min + 1]
+        res = minimize_scalar(energy, bounds=(lo, hi), method="bounded",
+                              options={"xatol": 1e-12 * r[i_min]})
+        eps = -min(float(res.fun), float(u[i_min]))
+        r_min = float(res.x) if res.fun <= u[i_min] else float(r[i_min])
+        self.sigma = float(sigma)
+        self.epsilon_over_k = float(eps)
+        self.r_min_star = r_min / sigma
+        self._x = r / sigma
+        self._u = u / eps
+        self._spline = CubicSpline(self._x, self._x ** 6 * self._u, bc_type="not-a-knot")
+        self._dspline = self._spline.derivative()
+        # short-range wall A x^-p, matched in value and slope at the first point
+        x0, u0 = self._x[0], self._u[0]
+        d0 = float(self._dspline(x0)) / x0 ** 6 - 6.0 * u0 / x0
+        p = -x0 * d0 / u0
+        if not p > 0:
+            raise PotentialError(f"tabulated potential{where}: the wall is not repulsive at the first point")
+        self._wall = (u0 * x0 ** p, p)
+        # long-range tail -C6 x^-6 - C8 x^-8, matched in value and slope at the last point
+        xn, un = self._x[-1], self._u[-1]
+        dn = float(self._dspline(xn)) / xn ** 6 - 6.0 * un / xn
+        a = np.array([[-xn ** -6, -xn ** -8], [6 * xn ** -7, 8 * xn ** -9]])
+        c6, c8 = np.linalg.solve(a, [un, dn])
+        if not (c6 > 0):
+            c6, c8 = -un * xn ** 6, 0.0
+        self._tail = (float(c6), float(c8))
+        digest = hashlib.sha256(np.ascontiguousarray(np.stack([self._x, self._u])).tobytes())
+        self._digest = digest.hexdigest()[:16]
+
+    # -------------------------------------------------------------------------- shape
+    @property
+    def shape_parameters(self) -> dict[str, float]:
+        return {"points": float(self._x.size)}
+
+    def cache_key(self) -> str:
+        return f"tabulated-{self._digest}"
+
+    def _identity(self) -> tuple:
+        return ("tabulated", self._digest)
+
+    def describe(self) -> str:
+        src = f" from {self.source}" if self.source else ""
+        return (f"tabulated potential{src} ({self._x.size} points, σ = {self.sigma * 1e10:.4f} Å, "
+                f"ε/k = {self.epsilon_over_k:.3f} K)")
+
+    def __repr__(self) -> str:
+        return f"<Tabulated {self._digest}, {self._x.size} points>"
+
+    def reduced_energy(self, r_star) -> np.ndarray:
+        x = np.asarray(r_star, dtype=float)
+        xi = np.clip(x, self._x[0], self._x[-1])
+        inner = self._spline(xi) / xi ** 6
+        a, p = self._wall
+        c6, c8 = self._tail
+        with np.errstate(divide="ignore", over="ignore"):
+            wall = a * x ** -p
+            tail = -c6 * x ** -6 - c8 * x ** -8
+        return np.where(x < self._x[0], wall, np.where(x > self._x[-1], tail, inner))
+
+    def reduced_derivative(self, r_star) -> np.ndarray:
+        x = np.asarray(r_star, dtype=float)
+        xi = np.clip(x, self._x[0], self._x[-1])
+        inner = self._dspline(xi) / xi ** 6 - 6.0 * self._spline(xi) / xi ** 7
+        a, p = self._wall
+        c6, c8 = self._tail
+        with np.errstate(divide="ignore", over="ignore"):
+            wall = -p * a * x ** (-p - 1.0)
+            tail = 6.0 * c6 * x ** -7 + 8.0 * c8 * x ** -9
+        return np.where(x < self._x[0], wall, np.where(x > self._x[-1], tail, inner))
+
+    # --------------------------------------------------------------------------- file
+    @classmethod
+    def from_file(cls, path) -> "Tabulated":
+        """Read a two-column table with a header naming the units, e.g. ``r [Å], U [K]``.
+
+        Columns are separated by commas, tabs, semicolons or spaces; lines starting with
+        ``#`` are comments; units are written in brackets ``[...]`` or parentheses.
+
+        Raises
+        ------
+        InputError : missing file, header without units, a row that is not two numbers.
+        PotentialError : a table that is not a usable potential (see the class).
+        """
+        path = Path(path)
+        try:
+            lines = path.read_text(encoding="utf-8-sig").splitlines()
+        except OSError as exc:
+            raise InputError(f"cannot read the potential table ({exc.strerror})", file=str(path)) from None
+        rows = [(i + 1, ln) for i, ln in enumerate(lines) if ln.strip() and not ln.lstrip().startswith("#")]
+        if not rows:
+            raise InputError("the potential table is empty", file=str(path))
+        split = lambda s: [c.strip() for c in re.split(r"[,;\t]|\s{2,}", s.strip()) if c.strip()]  # noqa: E731
+        header_row, header = rows[0]
+        cols = split(header)
+        if len(cols) != 2:
+            cols = [c for c in re.split(r"\s+(?![^\[(]*[\])])", header.strip()) if c]
+        if len(cols) != 2:
+            raise InputError(f"expected a header with two columns (distance and energy), found {len(cols)}",
+                             file=str(path), row=header_row, hint="e.g. 'r [Å], U [K]'")
+        units = []
+        for col in cols:
+            m = re.search(r"[\[(]\s*([^\])]+?)\s*[\])]\s*$", col)
+            if not m:
+                raise InputError("column header without a unit", file=str(path), row=header_row,
+                                 column=col, hint="write the unit in brackets, e.g. 'r [Å]'")
+            units.append(m.group(1))
+        r_vals, u_vals = [], []
+        for row, line in rows[1:]:
+            cells = [c for c in re.split(r"[,;\s]+", line.strip()) if c]
+            try:
+                if len(cells) != 2:
+                    raise ValueError
+                r_vals.append(float(cells[0]))
+                u_vals.append(float(cells[1]))
+            except ValueError:
+                raise InputError(f"expected two numbers, found '{line.strip()}'", file=str(path), row=row) from None
+        r_m = _length_m(np.array(r_vals), units[0], file=str(path), column=cols[0])
+        u_k = _energy_over_k(np.array(u_vals), units[1], file=str(path), column=cols[1])
+        obj = cls.__new__(cls)
+        obj.source = str(path)
+        obj._setup(r_m, u_k)
+        return obj
