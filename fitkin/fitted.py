@@ -32,7 +32,7 @@ def potential_from_record(entry: dict):
                                  f"(known: {', '.join(families)})")
     cls = getattr(potentials, families[name])
     shape = entry.get("shape_parameters") or {}
-    return cls(**shape) if shape else cls()
+    return cls(**shape) if (shape and name in ("mie", "exp6")) else cls()
 
 
 @dataclass
