@@ -1,0 +1,76 @@
+"""A human-readable summary of a measured table, for checking a file before fitting."""
+from __future__ import annotations
+
+from collections import Counter
+from pathlib import Path
+
+import numpy as np
+
+from fitkin.io.headers import _GUM, split_header
+from fitkin.io.quantities import kind_by_name, lookup_kind
+from fitkin.measurements import MeasuredTable, PropertySeries
+
+__all__ = ["describe_table"]
+
+
+def describe_table(table: MeasuredTable) -> list[str]:
+    """Lines describing ``table``: the file, then per property its points, temperature range,
+    header unit, uncertainty kind and sources, then the table's warnings.
+
+    Example (one property)::
+
+        argon_viscosity.csv (sha256 3f2a…)
+          viscosity: 12 points, 300.0 K to 1000.0 K, unit 'µPa s' in the header,
+            uncertainty: absolute in 'µPa s', sources: lab-A (8), lab-B (4)
+          warning: ...
+    """
+    lines = [f"{Path(table.path).name} (sha256 {table.sha256[:12]}…)"]
+    for series in table.series:
+        lines.append(f"  {_label(series.kind)}: {_points(series)}, {_range(series)}, "
+                     f"unit '{series.unit}' in the header")
+        lines.append(f"    uncertainty: {_uncertainty(series, table.columns)}; "
+                     f"sources: {_sources(series)}")
+    lines.extend(f"  warning: {w}" for w in table.warnings)
+    return lines
+
+
+def _label(kind: str) -> str:
+    try:
+        return kind_by_name(kind).label
+    except KeyError:
+        return kind
+
+
+def _points(series: PropertySeries) -> str:
+    return f"{len(series)} point" + ("" if len(series) == 1 else "s")
+
+
+def _range(series: PropertySeries) -> str:
+    if not len(series):
+        return "no temperatures"
+    return f"{np.min(series.temperature):.2f} K to {np.max(series.temperature):.2f} K"
+
+
+def _uncertainty(series: PropertySeries, columns) -> str:
+    if series.uncertainty_kind == "none":
+        return "none stated (points will be weighted equally)"
+    unit = _uncertainty_unit(series.kind, columns)
+    if series.uncertainty_kind == "relative":
+        return f"relative, in {unit or '%'} of the value"
+    return f"absolute, in '{unit}'" if unit else "absolute"
+
+
+def _uncertainty_unit(kind: str, columns) -> str | None:
+    for header in columns:
+        gum = _GUM.match(str(header))
+        if gum and gum.group("letter") == "u":
+            found = lookup_kind(gum.group("inner"))
+            if found is not None and found.name == kind:
+                rest = gum.group("rest")
+                return split_header("u " + rest)[1] or rest or None
+    return None
+
+
+def _sources(series: PropertySeries) -> str:
+    counts = Counter(str(s) for s in series.source)
+    return ", ".join(f"{name} ({n})" for name, n in counts.most_common())

@@ -1,0 +1,277 @@
+"""Header cells: what each column of a measured table holds.
+
+A header cell is a quantity name followed by its unit in square brackets or parentheses:
+``T [K]``, ``Temperature (°C)``, ``k (mW/(m·K))``. A standard uncertainty uses the GUM
+notation ``u(<name>)`` with an absolute unit (``u(viscosity) [µPa s]``) or percent for a
+relative one (``u(k) [%]``); ``<name>`` is any synonym of a quantity in the table. A column
+named ``source`` or ``dataset`` labels the points. Other columns are ignored with a warning.
+"""
+from __future__ import annotations
+
+import re
+import string
+from dataclasses import dataclass
+from typing import Mapping
+
+import pint
+
+from fitkin import units
+from fitkin.errors import InputError, UnitError
+from fitkin.io.quantities import SOURCE_NAMES, QuantityKind, lookup_kind, normalize_name
+
+__all__ = ["ColumnSpec", "split_header", "column_letter", "parse_header", "parse_unit_overrides"]
+
+_GUM = re.compile(r"^(?P<letter>[uU])\s*\(\s*(?P<inner>[^()]*?)\s*\)\s*(?P<rest>.*)$")
+
+
+@dataclass(frozen=True)
+class ColumnSpec:
+    """What one column holds.
+
+    Attributes
+    ----------
+    index : 0-based position in the row.
+    header : the header cell as found.
+    letter : spreadsheet column letter (A, B, ..., AA).
+    role : ``"quantity"``, ``"uncertainty"``, ``"source"``, ``"ignored"`` or ``"blank"``.
+    kind : the quantity (of the value, or of the value an uncertainty belongs to), or None.
+    unit : the parsed unit (None for source/ignored/blank columns or an unusable unit).
+    unit_text : the unit as written in the header, or as given by ``units=``.
+    relative : an uncertainty given in percent of the value.
+    """
+
+    index: int
+    header: str
+    letter: str
+    role: str
+    kind: QuantityKind | None = None
+    unit: pint.Unit | None = None
+    unit_text: str | None = None
+    relative: bool = False
+
+
+def column_letter(index: int) -> str:
+    """Spreadsheet letter of a 0-based column index: 0 -> 'A', 26 -> 'AA'."""
+    letters = ""
+    n = index + 1
+    while n:
+        n, rem = divmod(n - 1, 26)
+        letters = string.ascii_uppercase[rem] + letters
+    return letters
+
+
+def split_header(text: str) -> tuple[str, str | None]:
+    """Split ``'k (mW/(m·K))'`` into ``('k', 'mW/(m·K)')``; ``(name, None)`` without a unit.
+
+    The unit is the last bracketed group, ``[...]`` or ``(...)``, with nested parentheses
+    balanced. An empty bracket gives ``''`` (a unit that was left out).
+    """
+    s = str(text).strip()
+    closers = {"]": "[", ")": "("}
+    if not s or s[-1] not in closers:
+        return s, None
+    close, open_ = s[-1], closers[s[-1]]
+    depth = 0
+    for i in range(len(s) - 1, -1, -1):
+        if s[i] == close:
+            depth += 1
+        elif s[i] == open_:
+            depth -= 1
+            if depth == 0:
+                name = s[:i].strip()
+                if not name:
+                    return s, None
+                return name, s[i + 1:-1].strip()
+    return s, None
+
+
+def parse_unit_overrides(mapping: Mapping[str, str] | None) -> dict[tuple[str, str], str]:
+    """Normalise ``units=`` into ``{(role, kind name): unit text}``.
+
+    Keys are quantity names (``"T"``, ``"viscosity"``) or ``"u(<name>)"`` for an uncertainty.
+
+    Raises
+    ------
+    InputError : a key that names no known quantity.
+    """
+    result: dict[tuple[str, str], str] = {}
+    for key, unit_text in (mapping or {}).items():
+        gum = _GUM.match(str(key).strip())
+        role, name = ("uncertainty", gum.group("inner")) if gum and gum.group("letter") == "u" \
+            else ("quantity", str(key))
+        kind = lookup_kind(name)
+        if kind is None:
+            raise InputError(f"units=: '{key}' is not a quantity name fitkin knows",
+                             hint=f"use one of {_known_names()} or u(<name>)")
+        result[(role, kind.name)] = str(unit_text)
+    return result
+
+
+def _known_names() -> str:
+    from fitkin.io.quantities import QUANTITY_KINDS
+    return ", ".join(f"'{s}'" for k in QUANTITY_KINDS for s in k.synonyms[:2])
+
+
+def parse_header(cells, *, row: int, file: str,
+                 overrides: Mapping[tuple[str, str], str] | None = None
+                 ) -> tuple[list[ColumnSpec], list[InputError], list[str]]:
+    """Read a header row into column specs.
+
+    Parameters
+    ----------
+    cells : the header cells (strings, or None for empty spreadsheet cells).
+    row : the header's row number in the file as the user sees it.
+    file : the file, for messages.
+    overrides : from :func:`parse_unit_overrides`; used for columns whose header carries no
+        unit. A header unit that differs from an override is an error.
+
+    Returns
+    -------
+    (specs, problems, warnings) : one spec per cell; every problem found (missing, unreadable,
+    wrong-dimension or conflicting units, duplicate columns, ``u(x)`` naming no column of the
+    table, GUM ``U(x)``); warnings for ignored columns.
+    """
+    overrides = dict(overrides or {})
+    specs: list[ColumnSpec] = []
+    problems: list[InputError] = []
+    warnings: list[str] = []
+    for index, cell in enumerate(cells):
+        header = "" if cell is None else str(cell).strip()
+        letter = column_letter(index)
+        where = dict(file=file, row=row, column=header or letter)
+        if not header:
+            specs.append(ColumnSpec(index, header, letter, "blank"))
+            continue
+        gum = _GUM.match(header)
+        if gum:
+            spec = _uncertainty_spec(index, header, letter, gum, overrides, where, problems)
+        else:
+            spec = _quantity_spec(index, header, letter, overrides, where, problems, warnings)
+        specs.append(spec)
+    _check_duplicates(specs, row, file, problems)
+    _check_uncertainty_targets(specs, row, file, problems)
+    return specs, problems, warnings
+
+
+def _quantity_spec(index, header, letter, overrides, where, problems, warnings) -> ColumnSpec:
+    name, unit_text = split_header(header)
+    if normalize_name(name) in SOURCE_NAMES:
+        return ColumnSpec(index, header, letter, "source")
+    kind = lookup_kind(name)
+    if kind is None:
+        warnings.append(f"{where['file']}: column '{header}' ({letter}) is not a quantity fitkin "
+                        f"reads and was ignored")
+        return ColumnSpec(index, header, letter, "ignored")
+    unit, unit_text = _resolve_unit(kind, unit_text, overrides.get(("quantity", kind.name)),
+                                    where, problems, key=kind.synonyms[0])
+    if unit is not None and not _dimension_ok(unit, unit_text, kind, where, problems):
+        unit = None
+    return ColumnSpec(index, header, letter, "quantity", kind, unit, unit_text)
+
+
+def _uncertainty_spec(index, header, letter, gum, overrides, where, problems) -> ColumnSpec:
+    inner = gum.group("inner")
+    if gum.group("letter") == "U":
+        problems.append(InputError(
+            f"'{header}' is an expanded uncertainty U(x) in GUM notation; fitkin needs the "
+            "standard uncertainty u(x)", **where,
+            hint="divide by the coverage factor (often k = 2) and name the column u(...)"))
+        return ColumnSpec(index, header, letter, "ignored")
+    kind = lookup_kind(inner)
+    if kind is None:
+        problems.append(InputError(f"u({inner}): '{inner}' is not a quantity name fitkin knows",
+                                   **where, hint=f"use one of {_known_names()}"))
+        return ColumnSpec(index, header, letter, "ignored")
+    rest = gum.group("rest")
+    _, unit_text = split_header("u " + rest) if rest else ("", None)
+    if rest and unit_text is None:
+        unit_text = rest
+    unit, unit_text = _resolve_unit(kind, unit_text, overrides.get(("uncertainty", kind.name)),
+                                    where, problems, key=f"u({kind.synonyms[0]})")
+    relative = unit is not None and units.is_relative_unit(unit)
+    if relative and kind.role == "temperature":
+        problems.append(UnitError("a relative u(T) is ambiguous (percent of kelvin or of °C?)",
+                                  **where, hint="give u(T) in K"))
+        unit = None
+    elif unit is not None and not relative and not _dimension_ok(unit, unit_text, kind, where, problems,
+                                                                  uncertainty=True):
+        unit = None
+    return ColumnSpec(index, header, letter, "uncertainty", kind, unit, unit_text, relative)
+
+
+def _resolve_unit(kind, unit_text, override, where, problems, *, key):
+    """Unit from the header, else from ``units=``; problems for none, unreadable, or a conflict."""
+    if unit_text is None or unit_text == "":
+        if override is None:
+            examples = ", ".join(f"'{kind.synonyms[0]} [{u}]'" for u in kind.common_units[:2])
+            problems.append(UnitError(f"the column has no unit; expected a unit of {kind.label}",
+                                      **where, hint=f"write it in the header, e.g. {examples}, "
+                                      f"or pass units={{'{key}': ...}}"))
+            return None, None
+        unit_text = override
+        try:
+            return units.parse_unit(unit_text, **where), unit_text
+        except UnitError as exc:
+            problems.append(UnitError(f"units=: {exc.message}", **where, hint=exc.hint))
+            return None, unit_text
+    try:
+        unit = units.parse_unit(unit_text, **where)
+    except UnitError as exc:
+        problems.append(exc)
+        return None, unit_text
+    if override is not None:
+        try:
+            other = units.parse_unit(override)
+        except UnitError:
+            other = None
+        if other is None or not units.same_unit(unit, other):
+            problems.append(UnitError(f"the header says '{unit_text}' but units= gives '{override}'",
+                                      **where, hint="remove one of them; units= is meant for "
+                                      "columns without a unit"))
+            return None, unit_text
+    return unit, unit_text
+
+
+def _dimension_ok(unit, unit_text, kind, where, problems, *, uncertainty=False) -> bool:
+    expected = units.ureg.parse_units(kind.si_unit)
+    if unit.dimensionality == expected.dimensionality:
+        return True
+    examples = ", ".join(f"'{u}'" for u in kind.common_units[:4])
+    if uncertainty and kind.role == "property":
+        examples += " or '%' for a relative uncertainty"
+    hint = f"expected a unit of {kind.label} such as {examples}"
+    text = units.format_unit(unit)
+    if kind.role == "temperature" and text in ("C", "F"):
+        hint = f"'{text}' is read as {'coulomb' if text == 'C' else 'farad'}; write '°{text}' or 'deg{text}'"
+    problems.append(UnitError(f"the unit '{unit_text}' is not a unit of {kind.label} "
+                              f"(its dimension is {unit.dimensionality or 'none'})",
+                              **where, hint=hint))
+    return False
+
+
+def _check_duplicates(specs, row, file, problems) -> None:
+    first: dict[tuple, ColumnSpec] = {}
+    for spec in specs:
+        if spec.role not in ("quantity", "uncertainty", "source"):
+            continue
+        key = (spec.role, spec.kind.name if spec.kind else None)
+        if key in first:
+            what = "source labels" if spec.role == "source" else (
+                ("u(" if spec.role == "uncertainty" else "") + spec.kind.label
+                + (")" if spec.role == "uncertainty" else ""))
+            problems.append(InputError(
+                f"a second column for {what}; column '{first[key].header}' ({first[key].letter}) "
+                f"already holds it", file=file, row=row, column=spec.header,
+                hint="keep one column per quantity; put other data sets in their own file"))
+        else:
+            first[key] = spec
+
+
+def _check_uncertainty_targets(specs, row, file, problems) -> None:
+    present = {s.kind.name for s in specs if s.role == "quantity"}
+    for spec in specs:
+        if spec.role == "uncertainty" and spec.kind.name not in present:
+            problems.append(InputError(
+                f"'{spec.header}' is an uncertainty of {spec.kind.label}, but the table has no "
+                f"{spec.kind.label} column", file=file, row=row, column=spec.header,
+                hint="check the name inside u(...)"))

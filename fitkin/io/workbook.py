@@ -1,0 +1,67 @@
+"""Reading an .xlsx workbook sheet into a :class:`~fitkin.io.grid.CellGrid` (via openpyxl).
+
+Row numbers are the spreadsheet's own row numbers. Cells keep their types: numbers stay
+numbers, so only cells stored as text go through decimal-separator parsing.
+"""
+from __future__ import annotations
+
+import io
+import warnings
+import zipfile
+
+from fitkin.errors import InputError
+from fitkin.io.grid import CellGrid
+from fitkin.io.numbers import is_blank
+
+__all__ = ["read_workbook"]
+
+
+def read_workbook(data: bytes, path: str, *, sheet: str | int | None = None) -> CellGrid:
+    """Read one sheet (the first, or ``sheet`` by name or 0-based index) of an .xlsx file.
+
+    Formulas are read as the values the spreadsheet program last computed and stored.
+
+    Raises
+    ------
+    InputError : not a workbook (a zip of something else, damaged), unknown sheet.
+    """
+    import openpyxl
+
+    try:
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")  # openpyxl warns about styles and extensions
+            book = openpyxl.load_workbook(io.BytesIO(data), read_only=False, data_only=True)
+    except (zipfile.BadZipFile, KeyError, OSError, ValueError, TypeError) as exc:
+        raise InputError(f"not a readable .xlsx workbook ({type(exc).__name__})", file=path,
+                         hint="save it again from the spreadsheet program as .xlsx, or export CSV") from None
+    except Exception as exc:  # openpyxl's own InvalidFileException and friends
+        raise InputError(f"not a readable .xlsx workbook ({exc})", file=path,
+                         hint="save it again from the spreadsheet program as .xlsx, or export CSV") from None
+    names = book.sheetnames
+    if sheet is None:
+        ws = book.worksheets[0]
+    elif isinstance(sheet, int):
+        if not 0 <= sheet < len(names):
+            raise InputError(f"the workbook has no sheet number {sheet} (it has {len(names)})",
+                             file=path, hint=f"sheets: {', '.join(names)}")
+        ws = book.worksheets[sheet]
+    elif sheet in names:
+        ws = book[sheet]
+    else:
+        raise InputError(f"the workbook has no sheet '{sheet}'", file=path,
+                         hint=f"sheets: {', '.join(repr(n) for n in names)}")
+    grid = CellGrid()
+    if len(names) > 1 and sheet is None:
+        grid.notes.append(f"{path}: read the first sheet '{ws.title}' of {len(names)}")
+    for number, values in enumerate(ws.iter_rows(min_row=1, max_row=ws.max_row,
+                                                 max_col=ws.max_column, values_only=True), start=1):
+        cells = [v.strip() if isinstance(v, str) else v for v in values]
+        filled = [c for c in cells if not is_blank(c)]
+        if not filled:
+            continue
+        if isinstance(filled[0], str) and filled[0].startswith("#"):
+            grid.comments.append(" ".join(str(c) for c in filled)[1:].strip())
+            continue
+        grid.rows.append((number, ["" if c is None else c for c in cells]))
+    book.close()
+    return grid

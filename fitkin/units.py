@@ -1,0 +1,221 @@
+"""Units: the project's single pint registry and every parse of a unit string.
+
+No other module of fitkin parses unit text. Everything read from a user is converted to SI
+here, once, at the edge; the rest of the program sees plain floats in SI units.
+
+Unit spellings accepted beyond pint's own grammar (see :func:`normalize_unit_text`):
+
+* micro as ``µ`` (U+00B5 MICRO SIGN), ``μ`` (U+03BC GREEK SMALL LETTER MU) or ``u``;
+* multiplication as a space, ``*``, ``·`` (U+00B7), ``⋅`` (U+22C5) or ``.``;
+* powers as ``^-1``, ``**-1``, unicode superscripts (``m⁻¹``) or a bare trailing integer
+  (``W m-1 K-1``);
+* ``°C``, ``℃``, ``degC``, ``deg C``; ``°F``, ``℉``, ``degF``; ``K``;
+* ``cP`` (centipoise), ``µP`` (micropoise), ``Torr``;
+* ``Btu`` means the International Table British thermal unit (``Btu_IT``, 1055.05585262 J,
+  NIST SP 811 (2008), Appendix B), not pint's default ISO/EC Btu of 1055.056 J;
+* the lab shorthands ``W/mK``, ``mW/mK`` (read as per metre per kelvin, not per millikelvin)
+  and ``Pas``, ``mPas``, ``µPas`` (read as pascal seconds, not as a pressure).
+
+Offset temperature units (°C, °F) are handled as such for temperatures and as temperature
+*differences* wherever they appear inside a compound unit (``Btu/(h ft °F)``) or for an
+uncertainty (``u(T) [°C]``, see ``difference=True``).
+"""
+from __future__ import annotations
+
+import re
+
+import numpy as np
+import pint
+
+from fitkin.errors import UnitError
+
+__all__ = [
+    "ureg",
+    "normalize_unit_text",
+    "parse_unit",
+    "difference_unit",
+    "is_offset_unit",
+    "is_relative_unit",
+    "same_unit",
+    "to_si",
+    "parse_quantity",
+    "format_unit",
+]
+
+#: The one unit registry of the project.
+ureg = pint.UnitRegistry()
+ureg.define("Torr = torr")
+
+# Whole-string spellings that pint would read differently from what a lab means.
+_LAB_SHORTHANDS = {
+    "W/mK": "W/(m*K)",
+    "mW/mK": "mW/(m*K)",
+    "W/m K": "W/(m*K)",
+    "mW/m K": "mW/(m*K)",
+    "Pas": "Pa*s",
+    "mPas": "mPa*s",
+    "uPas": "uPa*s",
+    "µPas": "uPa*s",
+    "μPas": "uPa*s",
+}
+
+_SUPERSCRIPTS = str.maketrans("⁰¹²³⁴⁵⁶⁷⁸⁹⁻⁺", "0123456789-+")
+_SUPERSCRIPT_RUN = re.compile(r"([⁻⁺]?[⁰¹²³⁴⁵⁶⁷⁸⁹]+)")
+_BARE_POWER = re.compile(r"(?<=[A-Za-z])(-?\d+)(?=$|[\s*/)])")
+_BTU = re.compile(r"\b(?:Btu|BTU|btu)\b(?!_)")
+
+
+def normalize_unit_text(text: str) -> str:
+    """Rewrite a lab's unit spelling into pint's grammar (see the module docstring).
+
+    >>> normalize_unit_text("W m⁻¹ K⁻¹")
+    'W*m^-1*K^-1'
+    >>> normalize_unit_text("Btu/(h ft °F)")
+    'Btu_it/(h*ft*degF)'
+    """
+    s = " ".join(str(text).strip().split())
+    if s in _LAB_SHORTHANDS:
+        s = _LAB_SHORTHANDS[s]
+    s = s.replace("℃", "degC").replace("℉", "degF")
+    s = re.sub(r"°\s*C\b", "degC", s)
+    s = re.sub(r"°\s*F\b", "degF", s)
+    s = re.sub(r"\bdeg\.?\s+([CF])\b", r"deg\1", s)
+    s = s.replace("μ", "u").replace("µ", "u")
+    s = s.replace("·", "*").replace("⋅", "*").replace("×", "*").replace("−", "-")
+    s = _SUPERSCRIPT_RUN.sub(lambda m: "^" + m.group(1).translate(_SUPERSCRIPTS), s)
+    s = s.replace("**", "^")
+    s = _BTU.sub("Btu_it", s)
+    # a dot between letters is a multiplication (Pa.s); pint accepts it but be explicit
+    s = re.sub(r"(?<=[A-Za-z])\.(?=[A-Za-z])", "*", s)
+    s = re.sub(r"\s*([*/^()])\s*", r"\1", s)
+    s = re.sub(r"\s+", "*", s)
+    s = _BARE_POWER.sub(r"^\1", s)
+    s = s.replace("^^", "^")
+    return s
+
+
+def parse_unit(text: str, *, file: str | None = None, column: str | None = None,
+               row: int | None = None) -> pint.Unit:
+    """Parse a unit string as labs write it into a :class:`pint.Unit` of :data:`ureg`.
+
+    Raises
+    ------
+    UnitError : empty text, or text pint cannot read after :func:`normalize_unit_text`.
+    """
+    raw = "" if text is None else str(text).strip()
+    if not raw:
+        raise UnitError("no unit given", file=file, row=row, column=column,
+                        hint="write the unit in brackets, e.g. 'T [K]'")
+    normalized = normalize_unit_text(raw)
+    try:
+        unit = ureg.parse_units(normalized)
+    except Exception as exc:  # pint raises several unrelated exception types here
+        raise UnitError(f"cannot read the unit '{raw}' ({type(exc).__name__})", file=file,
+                        row=row, column=column,
+                        hint="use a spelling such as 'K', '°C', 'µPa s', 'mW/(m K)', 'kPa' or '%'") from None
+    return unit
+
+
+def is_offset_unit(unit: pint.Unit) -> bool:
+    """True for a unit with an offset from its base unit (°C, °F): zero in it is not zero in SI."""
+    return ureg.Quantity(0.0, unit).to_base_units().magnitude != 0.0
+
+
+def difference_unit(unit: pint.Unit) -> pint.Unit:
+    """The unit of a *difference* of ``unit``: °C → Δ°C (= 1 K), °F → Δ°F (= 5/9 K); others unchanged."""
+    if not is_offset_unit(unit):
+        return unit
+    return ureg.parse_units("delta_" + str(unit))
+
+
+def is_relative_unit(unit: pint.Unit) -> bool:
+    """True for percent (the only unit fitkin reads as a relative uncertainty)."""
+    return unit == ureg.percent
+
+
+def same_unit(a: pint.Unit, b: pint.Unit) -> bool:
+    """True when two units are the same scale (µPa·s and uPa s are; cP and mPa·s are too)."""
+    if a.dimensionality != b.dimensionality or is_offset_unit(a) != is_offset_unit(b):
+        return False
+    if is_offset_unit(a):
+        return a == b
+    return bool(np.isclose(ureg.Quantity(1.0, a).to(b).magnitude, 1.0, rtol=1e-12, atol=0.0))
+
+
+def format_unit(unit: pint.Unit) -> str:
+    """Short display form of a unit, e.g. 'µPa·s'."""
+    return f"{unit:~P}"
+
+
+def to_si(values, unit: pint.Unit, si_unit: str, *, difference: bool = False,
+          file: str | None = None, column: str | None = None) -> np.ndarray:
+    """Convert an array of values in ``unit`` to ``si_unit``.
+
+    Parameters
+    ----------
+    values : array-like (n,), in ``unit``.
+    unit : the values' unit.
+    si_unit : the target SI unit text (e.g. ``"K"``, ``"Pa s"``, ``"W/(m K)"``); it fixes the
+        expected dimension.
+    difference : the values are differences (uncertainties, ranges): °C and °F then convert
+        without their offset (1 °C difference = 1 K).
+
+    Returns
+    -------
+    ndarray (n,) float in ``si_unit``.
+
+    Raises
+    ------
+    UnitError : ``unit`` does not have the dimension of ``si_unit``.
+    """
+    target = ureg.parse_units(si_unit)
+    if unit.dimensionality != target.dimensionality:
+        raise UnitError(f"the unit '{format_unit(unit)}' is a {_dimension_words(unit)}, "
+                        f"expected a unit convertible to {si_unit}", file=file, column=column)
+    source = difference_unit(unit) if difference else unit
+    magnitudes = np.asarray(values, dtype=float)
+    return np.asarray(ureg.Quantity(magnitudes, source).to(target).magnitude, dtype=float)
+
+
+def _dimension_words(unit: pint.Unit) -> str:
+    dim = unit.dimensionality
+    if not dim:
+        return "pure number"
+    return f"unit of {dim}"
+
+
+_NUMBER = re.compile(r"^\s*([+\-−]?(?:\d+\.?\d*|\.\d+)(?:[eE][+\-−]?\d+)?)\s*(.*?)\s*$")
+
+
+def parse_quantity(text: str, si_unit: str, *, name: str = "value",
+                   default_unit: str | None = None) -> float:
+    """Read a physical quantity written as text (``"1.5 bar"``, ``"39.948 g/mol"``) into SI.
+
+    Parameters
+    ----------
+    text : a number followed by a unit; a bare number is read in ``default_unit`` when one is
+        given and is an error otherwise.
+    si_unit : the SI unit of the result; fixes the expected dimension.
+    name : what the value is (used in messages, e.g. ``"--molar-mass"``).
+
+    Returns
+    -------
+    float, the value in ``si_unit``. Temperatures in °C/°F convert with their offset.
+
+    Raises
+    ------
+    UnitError : no number, no unit (and no default), unreadable unit, wrong dimension.
+    """
+    match = _NUMBER.match(str(text))
+    if not match:
+        raise UnitError(f"{name}: expected a number followed by a unit, found '{text}'",
+                        hint=f"for example '1.5 {si_unit}'")
+    number = float(match.group(1).replace("−", "-"))
+    unit_text = match.group(2) or default_unit
+    if not unit_text:
+        raise UnitError(f"{name}: '{text}' has no unit", hint=f"write it with a unit, e.g. '{text} {si_unit}'")
+    try:
+        unit = parse_unit(unit_text)
+        return float(to_si([number], unit, si_unit)[0])
+    except UnitError as exc:
+        raise UnitError(f"{name}: {exc.message}", hint=exc.hint) from None
