@@ -150,7 +150,7 @@ def _require_columns(specs: list[ColumnSpec], cells: list[str], row: int, file: 
                          hint=missing_header if header_looks_numeric else
                          "name one column 'T', 'temperature' or 'temp' with its unit, e.g. 'T [K]'")
     if not any(s.role == "quantity" and s.kind.role == "property" for s in specs):
-        names = ", ".join(f"'{k.synonyms[0]}'" for k in QUANTITY_KINDS if k.role == "property")
+        names = " or ".join(f"'{k.synonyms[0]}'" for k in QUANTITY_KINDS if k.role == "property")
         raise InputError("no property column", file=file, row=row,
                          hint=f"name a column {names} (or a synonym) with its unit, "
                          "e.g. 'viscosity [µPa s]'")

@@ -46,6 +46,14 @@ def _fmt(x: float) -> str:
     return f"{x:.6g}"
 
 
+def _value_text(value: float, spec: ColumnSpec, si: float) -> str:
+    """'22.7 µPa s = 2.27e-05 Pa s', or just '22.7 K' when the header unit is the SI unit."""
+    target = units.ureg.parse_units(spec.kind.si_unit)
+    if spec.unit is not None and units.same_unit(spec.unit, target):
+        return f"{_fmt(value)} {spec.unit_text}"
+    return f"{_fmt(value)} {spec.unit_text} = {_fmt(si)} {spec.kind.si_unit}"
+
+
 def check_temperature(spec: ColumnSpec, raw, kelvin, rows, file: str
                       ) -> tuple[list[InputError], list[str]]:
     """Absolute temperature must be > 0 K (an error); above the plausible limit is a warning.
@@ -64,8 +72,7 @@ def check_temperature(spec: ColumnSpec, raw, kelvin, rows, file: str
                 hint = ("if these temperatures are in degrees Celsius, write "
                         f"'{spec.header.split('[')[0].split('(')[0].strip()} [°C]'")
             problems.append(InputError(
-                f"temperature {_fmt(value)} {spec.unit_text} = {_fmt(k)} K is not above absolute "
-                "zero", file=file, row=int(row), column=spec.header, hint=hint))
+                f"temperature {_value_text(value, spec, k)} is not above absolute zero", file=file, row=int(row), column=spec.header, hint=hint))
     high = spec.kind.plausible[1] if spec.kind.plausible else np.inf
     hot = np.isfinite(kelvin) & (kelvin > high)
     if hot.any():
@@ -115,12 +122,11 @@ def check_plausible(spec: ColumnSpec, raw, si, rows, file: str) -> list[InputErr
             hint = f"no common unit of {kind.label} brings them into range; check the unit and the values"
         return [InputError(
             f"{out.sum()} of {stated.sum()} values ({format_rows(rows[out])}) cannot be the "
-            f"{kind.label} of a dilute gas: {_fmt(raw[first])} {spec.unit_text} = "
-            f"{_fmt(si[first])} {kind.si_unit}, expected {range_text}",
+            f"{kind.label} of a dilute gas: {_value_text(raw[first], spec, si[first])}, "
+            f"expected {range_text}",
             file=file, row=int(rows[first]), column=spec.header, hint=hint)]
     return [InputError(
-        f"{_fmt(value)} {spec.unit_text} = {_fmt(v)} {kind.si_unit} cannot be the {kind.label} of "
-        f"a dilute gas (expected {range_text})", file=file, row=int(row), column=spec.header,
+        f"{_value_text(value, spec, v)} cannot be the {kind.label} of a dilute gas (expected {range_text})", file=file, row=int(row), column=spec.header,
         hint="most other values of the column are in range: a typo?")
         for value, v, row in zip(raw[out], si[out], rows[out])]
 
