@@ -12,7 +12,7 @@ import warnings
 from pathlib import Path
 
 from . import __version__
-from .errors import FitkinError
+from .errors import FitkinError, InputProblems
 
 __all__ = ["main", "build_parser"]
 
@@ -108,6 +108,12 @@ def main(argv: list[str] | None = None) -> int:
         with warnings.catch_warnings():
             warnings.simplefilter("ignore", RuntimeWarning)
             return handler(args, out=sys.stdout)
+    except InputProblems as exc:
+        n = len(exc.problems)
+        print(f"fitkin {args.command}: {n} problem{'s' if n != 1 else ''} found in the input:", file=sys.stderr)
+        for problem in exc.problems:
+            print(f"  - {problem}", file=sys.stderr)
+        return EXIT_USER
     except FitkinError as exc:
         print(f"fitkin {args.command}: error: {exc}", file=sys.stderr)
         return EXIT_USER
