@@ -142,9 +142,13 @@ def _require_columns(specs: list[ColumnSpec], cells: list[str], row: int, file: 
     missing_header = ("the first non-comment row is read as the header, and it holds numbers; "
                       "add a header such as 'T [K], viscosity [µPa s]' (remove a leading '#' if "
                       "it is commented out)")
-    if len(cells) < 2:
-        raise InputError(f"found a single column ('{cells[0] if cells else ''}')", file=file, row=row,
-                         hint="separate columns with commas, semicolons or tabs")
+    filled = [c for c in cells if c]
+    if len(filled) < 2:
+        single = filled[0] if filled else ""
+        hint = ("separate columns with commas, semicolons or tabs" if "[" in single or "(" in single
+                else "if this row is a note, start it with '#' to make it a comment")
+        raise InputError(f"the header row has a single cell ('{single}')", file=file, row=row,
+                         hint=hint)
     if not any(s.role == "quantity" and s.kind.role == "temperature" for s in specs):
         raise InputError("no temperature column", file=file, row=row,
                          hint=missing_header if header_looks_numeric else
