@@ -198,3 +198,25 @@ def test_read_tables_collects_problems_of_all_files(tmp_path):
     files = [p.file for p in info.value.problems]
     assert files == [str(bad), str(missing)]
     assert len(read_tables([good, good])) == 2
+
+
+def test_sep_line_declares_the_separator(tmp_path):
+    text = "sep=;\nT [K];viscosity [uPa s]\n300;22,7\n"
+    s = read_table(write(tmp_path, "sep.csv", text)).get("viscosity")
+    assert s.value[0] == pytest.approx(22.7e-6) and list(s.rows) == [3]
+
+
+def test_xlsx_formula_without_stored_value_is_an_error(tmp_path):
+    # openpyxl writes formulas but never computes them, like any script-written workbook
+    path = write_xlsx(tmp_path, "f.xlsx", {"s": [["T [K]", "viscosity [µPa s]"], [300, 22.7],
+                                                 [400, "=B2*1.2"]]})
+    with pytest.raises(InputProblems) as info:
+        read_table(path)
+    (problem,) = info.value.problems
+    assert problem.row == 3 and problem.column == "B" and "=B2*1.2" in str(problem)
+    assert "save it" in problem.hint
+
+
+def test_read_tables_accepts_a_single_path(tmp_path):
+    (table,) = read_tables(write(tmp_path, "a.csv", CSV))
+    assert len(table.get("viscosity")) == 2

@@ -316,3 +316,12 @@ def test_one_column_header(tmp_path):
 def test_property_column_with_no_values(tmp_path):
     assert_file_error(write(tmp_path, "n.csv", "T [K],viscosity [uPa s]\n300,\n400,\n"),
                       "no property values")
+
+
+def test_many_non_numeric_cells_are_summarised_per_column(tmp_path):
+    body = "".join(f"{300 + i},x{i}\n" for i in range(25))
+    path = write(tmp_path, "a.csv", "T [K],viscosity [uPa s]\n" + body)
+    problems = problems_of(path)
+    assert len(problems) == 11
+    last = problems[-1]
+    assert_located(last, path, 12, "viscosity [uPa s]", "15 more cells", "rows 12-26")

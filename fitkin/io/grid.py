@@ -2,12 +2,14 @@
 
 Text files (CSV, TSV, semicolon-separated) and .xlsx workbooks are read into the same
 :class:`CellGrid`. Lines (or spreadsheet rows) whose first non-blank content starts with
-``#`` are comments; blank rows are skipped. Row numbers count every line of the file as a
+``#`` are comments; blank rows are skipped; a first line ``sep=;`` (written by spreadsheet
+programs) declares the separator. Row numbers count every line of the file as a
 text editor or spreadsheet shows it, comment and blank lines included, starting at 1.
 """
 from __future__ import annotations
 
 import csv
+import re
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -22,6 +24,7 @@ _DELIMITER_NAMES = {"\t": "tab", ";": "semicolon", ",": "comma", "|": "vertical 
 _ZIP_MAGIC = b"PK\x03\x04"
 _OLE2_MAGIC = b"\xd0\xcf\x11\xe0\xa1\xb1\x1a\xe1"
 _SAMPLE_ROWS = 50
+_SEP_LINE = re.compile(r"^sep=(.)$", re.IGNORECASE)
 
 
 @dataclass
@@ -111,7 +114,14 @@ def _split_text(text: str, path: str) -> CellGrid:
         content.append((number, line))
     if not content:
         return grid
-    grid.delimiter = detect_delimiter([line for _, line in content[:_SAMPLE_ROWS]])
+    declared = _SEP_LINE.match(content[0][1].strip())
+    if declared:  # spreadsheet programs write 'sep=;' as a first line to declare the separator
+        content = content[1:]
+        grid.delimiter = declared.group(1)
+        if not content:
+            return grid
+    else:
+        grid.delimiter = detect_delimiter([line for _, line in content[:_SAMPLE_ROWS]])
     starts: list[int] = []
 
     def feed():

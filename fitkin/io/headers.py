@@ -17,7 +17,8 @@ import pint
 
 from fitkin import units
 from fitkin.errors import InputError, UnitError
-from fitkin.io.quantities import SOURCE_NAMES, QuantityKind, lookup_kind, normalize_name
+from fitkin.io.quantities import (QUANTITY_KINDS, SOURCE_NAMES, QuantityKind, lookup_kind,
+                                  normalize_name)
 
 __all__ = ["ColumnSpec", "split_header", "column_letter", "parse_header", "parse_unit_overrides"]
 
@@ -108,7 +109,6 @@ def parse_unit_overrides(mapping: Mapping[str, str] | None) -> dict[tuple[str, s
 
 
 def _known_names() -> str:
-    from fitkin.io.quantities import QUANTITY_KINDS
     return ", ".join(f"'{s}'" for k in QUANTITY_KINDS for s in k.synonyms[:2])
 
 
@@ -193,8 +193,8 @@ def _uncertainty_spec(index, header, letter, gum, overrides, where, problems) ->
         problems.append(UnitError("a relative u(T) is ambiguous (percent of kelvin or of °C?)",
                                   **where, hint="give u(T) in K"))
         unit = None
-    elif unit is not None and not relative and not _dimension_ok(unit, unit_text, kind, where, problems,
-                                                                  uncertainty=True):
+    elif unit is not None and not relative and not _dimension_ok(
+            unit, unit_text, kind, where, problems, uncertainty=True):
         unit = None
     return ColumnSpec(index, header, letter, "uncertainty", kind, unit, unit_text, relative)
 

@@ -41,6 +41,8 @@ __all__ = ["read_table", "read_tables", "DEFAULT_PRESSURE_LIMIT"]
 
 #: Pa; points stated above it are flagged (see the module docstring).
 DEFAULT_PRESSURE_LIMIT = 1.0e6
+#: Non-numeric cells listed one by one per column; the rest are summarised in one problem.
+MAX_CELL_PROBLEMS = 10
 
 
 def read_table(path, *, sheet: str | int | None = None, units: Mapping[str, str] | None = None,
@@ -54,7 +56,8 @@ def read_table(path, *, sheet: str | int | None = None, units: Mapping[str, str]
     units : units for header cells that carry none, keyed by quantity name (``"T"``,
         ``"viscosity"``, ``"u(k)"``, any synonym). A header that has a unit keeps it; if it
         differs from the one given here that is an error.
-    pressure_limit : Pa; points stated at a higher pressure get a warning. None: no check.
+    pressure_limit : Pa; points stated at a higher pressure get a warning (the module
+        docstring says why 1 MPa). None: no check.
 
     Returns
     -------
@@ -90,7 +93,7 @@ def read_table(path, *, sheet: str | int | None = None, units: Mapping[str, str]
     builder.run()
     problems += builder.problems
     if problems:
-        raise InputProblems(problems)
+        raise InputProblems(sorted(problems, key=lambda p: p.row or 0))
     if not builder.series:
         raise InputError("no property values in the table (every property cell is empty)", file=file)
     return MeasuredTable(
@@ -109,6 +112,8 @@ def read_tables(paths: Iterable, **kwargs) -> tuple[MeasuredTable, ...]:
     ------
     InputProblems : the file-level errors and cell problems of every file, in file order.
     """
+    if isinstance(paths, (str, Path)):
+        paths = [paths]
     tables, problems = [], []
     for path in paths:
         try:
@@ -249,7 +254,9 @@ class _TableBuilder:
                     column=column_letter(index), hint="give every column a header, or delete the cell"))
 
     def _parse_column(self, spec: ColumnSpec, decimal_comma: bool) -> np.ndarray:
+        """Numbers of one column, NaN for blank cells; at most MAX_CELL_PROBLEMS reported."""
         values = np.full(len(self.body), np.nan)
+        bad_rows = []
         for i, (row, _) in enumerate(self.body):
             cell = self.cell(i, spec.index)
             if is_blank(cell):
@@ -257,8 +264,17 @@ class _TableBuilder:
             try:
                 values[i] = parse_number(cell, decimal_comma=decimal_comma)
             except CellValueError as exc:
-                self.problems.append(InputError(exc.message, file=self.file, row=row,
-                                                column=spec.header, hint=exc.hint))
+                bad_rows.append(row)
+                if len(bad_rows) <= MAX_CELL_PROBLEMS:
+                    self.problems.append(InputError(exc.message, file=self.file, row=row,
+                                                    column=spec.header, hint=exc.hint))
+        if len(bad_rows) > MAX_CELL_PROBLEMS:
+            rest = bad_rows[MAX_CELL_PROBLEMS:]
+            self.problems.append(InputError(
+                f"{len(rest)} more cells that are not numbers ({validate.format_rows(rest)})",
+                file=self.file, row=rest[0], column=spec.header,
+                hint="the first ones are listed above; is the column separator or the decimal "
+                "separator what the file uses?"))
         return values
 
     def _pressure(self, quantities, raw, si) -> np.ndarray:

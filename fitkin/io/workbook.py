@@ -9,7 +9,7 @@ import io
 import warnings
 import zipfile
 
-from fitkin.errors import InputError
+from fitkin.errors import InputError, InputProblems
 from fitkin.io.grid import CellGrid
 from fitkin.io.numbers import is_blank
 
@@ -19,11 +19,14 @@ __all__ = ["read_workbook"]
 def read_workbook(data: bytes, path: str, *, sheet: str | int | None = None) -> CellGrid:
     """Read one sheet (the first, or ``sheet`` by name or 0-based index) of an .xlsx file.
 
-    Formulas are read as the values the spreadsheet program last computed and stored.
+    Formulas are read as the values the spreadsheet program last computed and stored; a
+    formula without a stored value (a workbook written by a script and never opened) is an
+    error rather than a blank cell.
 
     Raises
     ------
     InputError : not a workbook (a zip of something else, damaged), unknown sheet.
+    InputProblems : formula cells without a stored value.
     """
     import openpyxl
 
@@ -31,6 +34,7 @@ def read_workbook(data: bytes, path: str, *, sheet: str | int | None = None) -> 
         with warnings.catch_warnings():
             warnings.simplefilter("ignore")  # openpyxl warns about styles and extensions
             book = openpyxl.load_workbook(io.BytesIO(data), read_only=False, data_only=True)
+            formulas = openpyxl.load_workbook(io.BytesIO(data), read_only=False, data_only=False)
     except (zipfile.BadZipFile, KeyError, OSError, ValueError, TypeError) as exc:
         raise InputError(f"not a readable .xlsx workbook ({type(exc).__name__})", file=path,
                          hint="save it again from the spreadsheet program as .xlsx, or export CSV") from None
@@ -50,6 +54,7 @@ def read_workbook(data: bytes, path: str, *, sheet: str | int | None = None) -> 
     else:
         raise InputError(f"the workbook has no sheet '{sheet}'", file=path,
                          hint=f"sheets: {', '.join(repr(n) for n in names)}")
+    _check_cached_formulas(ws, formulas[ws.title], path)
     grid = CellGrid()
     if len(names) > 1 and sheet is None:
         grid.notes.append(f"{path}: read the first sheet '{ws.title}' of {len(names)}")
@@ -65,3 +70,18 @@ def read_workbook(data: bytes, path: str, *, sheet: str | int | None = None) -> 
         grid.rows.append((number, ["" if c is None else c for c in cells]))
     book.close()
     return grid
+
+
+def _check_cached_formulas(values_ws, formulas_ws, path: str) -> None:
+    """Formula cells with no stored result would read as blank: report each of them."""
+    problems = []
+    for row in formulas_ws.iter_rows():
+        for cell in row:
+            if cell.data_type == "f" and values_ws[cell.coordinate].value is None:
+                problems.append(InputError(
+                    f"the formula '{cell.value}' has no stored result", file=path, row=cell.row,
+                    column=cell.column_letter,
+                    hint="open the workbook in a spreadsheet program and save it, so the computed "
+                    "values are stored"))
+    if problems:
+        raise InputProblems(problems)
