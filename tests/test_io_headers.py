@@ -21,6 +21,10 @@ def write(tmp_path, name, text):
     ("viscosity", ("viscosity", None)),
     ("viscosity []", ("viscosity", "")),
     ("(K)", ("(K)", None)),
+    ("T / K", ("T", "K")),                       # quantity calculus, ISO 80000-1
+    ("η/(µPa s)", ("η", "µPa s")),
+    ("k / (mW/(m K))", ("k", "mW/(m K)")),
+    ("ratio a/b", ("ratio a/b", None)),          # not a known quantity before the '/'
 ])
 def test_split_header(header, expected):
     assert split_header(header) == expected
@@ -40,6 +44,23 @@ def test_quantity_synonyms(name, kind):
 
 def test_unknown_name_is_none():
     assert lookup_kind("density") is None
+    assert lookup_kind("viscosity k") is None  # name and symbol of different kinds
+
+
+@pytest.mark.parametrize("name, kind", [
+    ("Viscosity η", "viscosity"), ("Temperature T", "temperature"),
+    ("thermal conductivity λ", "conductivity"), ("Pressure p", "pressure"),
+])
+def test_name_followed_by_its_symbol(name, kind):
+    assert lookup_kind(name).name == kind
+
+
+def test_quantity_calculus_headers(tmp_path):
+    text = "T / °C,η/(µPa s),u(η) / %\n26.85,22.7,1\n"
+    table = read_table(write(tmp_path, "qc.csv", text))
+    s = table.get("viscosity")
+    assert s.temperature[0] == pytest.approx(300.0) and s.value[0] == pytest.approx(22.7e-6)
+    assert s.uncertainty[0] == pytest.approx(0.227e-6) and s.uncertainty_kind == "relative"
 
 
 def test_column_letters():

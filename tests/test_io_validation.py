@@ -325,3 +325,10 @@ def test_many_non_numeric_cells_are_summarised_per_column(tmp_path):
     assert len(problems) == 11
     last = problems[-1]
     assert_located(last, path, 12, "viscosity [uPa s]", "15 more cells", "rows 12-26")
+
+
+def test_cells_beyond_the_header_are_reported_once_per_column(tmp_path):
+    path = write(tmp_path, "a.csv", "T [K],viscosity [uPa s],,\n300,22.7,5,\n310,22.9,6,x\n")
+    problems = problems_of(path)
+    assert [(p.row, p.column) for p in problems] == [(2, "C"), (3, "D")]
+    assert "1 more (rows 2-3)" in str(problems[0])

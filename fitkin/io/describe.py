@@ -6,7 +6,7 @@ from pathlib import Path
 
 import numpy as np
 
-from fitkin.io.headers import _GUM, split_header
+from fitkin.io.headers import gum_parts
 from fitkin.io.quantities import kind_by_name, lookup_kind
 from fitkin.measurements import MeasuredTable, PropertySeries
 
@@ -62,12 +62,11 @@ def _uncertainty(series: PropertySeries, columns) -> str:
 
 def _uncertainty_unit(kind: str, columns) -> str | None:
     for header in columns:
-        gum = _GUM.match(str(header))
-        if gum and gum.group("letter") == "u":
-            found = lookup_kind(gum.group("inner"))
+        parts = gum_parts(header)
+        if parts and parts[0] == "u":
+            found = lookup_kind(parts[1])
             if found is not None and found.name == kind:
-                rest = gum.group("rest")
-                return split_header("u " + rest)[1] or rest or None
+                return parts[2]
     return None
 
 

@@ -1,7 +1,7 @@
 """Header cells: what each column of a measured table holds.
 
 A header cell is a quantity name followed by its unit in square brackets or parentheses:
-``T [K]``, ``Temperature (°C)``, ``k (mW/(m·K))``. A standard uncertainty uses the GUM
+``T [K]``, ``Temperature (°C)``, ``k (mW/(m·K))``, or in quantity-calculus form ``T / K``. A standard uncertainty uses the GUM
 notation ``u(<name>)`` with an absolute unit (``u(viscosity) [µPa s]``) or percent for a
 relative one (``u(k) [%]``); ``<name>`` is any synonym of a quantity in the table. A column
 named ``source`` or ``dataset`` labels the points. Other columns are ignored with a warning.
@@ -20,7 +20,8 @@ from fitkin.errors import InputError, UnitError
 from fitkin.io.quantities import (QUANTITY_KINDS, SOURCE_NAMES, QuantityKind, lookup_kind,
                                   normalize_name)
 
-__all__ = ["ColumnSpec", "split_header", "column_letter", "parse_header", "parse_unit_overrides"]
+__all__ = ["ColumnSpec", "split_header", "gum_parts", "column_letter", "parse_header",
+           "parse_unit_overrides"]
 
 _GUM = re.compile(r"^(?P<letter>[uU])\s*\(\s*(?P<inner>[^()]*?)\s*\)\s*(?P<rest>.*)$")
 
@@ -62,12 +63,25 @@ def column_letter(index: int) -> str:
 
 
 def split_header(text: str) -> tuple[str, str | None]:
-    """Split ``'k (mW/(m·K))'`` into ``('k', 'mW/(m·K)')``; ``(name, None)`` without a unit.
+    """Split a header cell into its name and unit text; ``(name, None)`` without a unit.
 
     The unit is the last bracketed group, ``[...]`` or ``(...)``, with nested parentheses
-    balanced. An empty bracket gives ``''`` (a unit that was left out).
+    balanced: ``'k (mW/(m·K))'`` -> ``('k', 'mW/(m·K)')``. The quantity-calculus form
+    ``'T / K'`` or ``'η/(µPa s)'`` (ISO 80000-1) is read too when the part before the first
+    ``/`` is a known quantity name. An empty bracket gives ``''`` (a unit that was left out).
     """
     s = str(text).strip()
+    name, unit = _split_brackets(s)
+    if unit is not None and name.endswith("/"):  # 'η / (µPa s)'
+        return name[:-1].strip(), unit
+    if unit is None and "/" in s:
+        before, after = (part.strip() for part in s.split("/", 1))
+        if before and lookup_kind(before) is not None:
+            return before, _strip_parentheses(after)
+    return name, unit
+
+
+def _split_brackets(s: str) -> tuple[str, str | None]:
     closers = {"]": "[", ")": "("}
     if not s or s[-1] not in closers:
         return s, None
@@ -84,6 +98,31 @@ def split_header(text: str) -> tuple[str, str | None]:
                     return s, None
                 return name, s[i + 1:-1].strip()
     return s, None
+
+
+def _strip_parentheses(unit: str) -> str:
+    """'(mW/(m K))' -> 'mW/(m K)'; leaves 'mW/(m K)' and '(m K)/W'-like texts alone."""
+    if unit.startswith("(") and _split_brackets("x " + unit)[1] == unit[1:-1].strip():
+        return unit[1:-1].strip()
+    return unit
+
+
+def gum_parts(header: str) -> tuple[str, str, str | None] | None:
+    """``'u(k) [%]'`` -> ``('u', 'k', '%')``: GUM letter, quantity name and unit text (None
+    without a unit); None when the header is not of the form ``u(...)``/``U(...)``."""
+    gum = _GUM.match(str(header).strip())
+    if not gum:
+        return None
+    rest = gum.group("rest").strip()
+    if not rest:
+        unit = None
+    elif rest.startswith("/"):
+        unit = _strip_parentheses(rest[1:].strip())
+    else:
+        unit = _split_brackets("u " + rest)[1]
+        if unit is None:
+            unit = rest
+    return gum.group("letter"), gum.group("inner"), unit
 
 
 def parse_unit_overrides(mapping: Mapping[str, str] | None) -> dict[tuple[str, str], str]:
@@ -142,7 +181,7 @@ def parse_header(cells, *, row: int, file: str,
         if not header:
             specs.append(ColumnSpec(index, header, letter, "blank"))
             continue
-        gum = _GUM.match(header)
+        gum = gum_parts(header)
         if gum:
             spec = _uncertainty_spec(index, header, letter, gum, overrides, where, problems)
         else:
@@ -170,8 +209,8 @@ def _quantity_spec(index, header, letter, overrides, where, problems, warnings) 
 
 
 def _uncertainty_spec(index, header, letter, gum, overrides, where, problems) -> ColumnSpec:
-    inner = gum.group("inner")
-    if gum.group("letter") == "U":
+    gum_letter, inner, unit_text = gum
+    if gum_letter == "U":
         problems.append(InputError(
             f"'{header}' is an expanded uncertainty U(x) in GUM notation; fitkin needs the "
             "standard uncertainty u(x)", **where,
@@ -182,10 +221,6 @@ def _uncertainty_spec(index, header, letter, gum, overrides, where, problems) ->
         problems.append(InputError(f"u({inner}): '{inner}' is not a quantity name fitkin knows",
                                    **where, hint=f"use one of {_known_names()}"))
         return ColumnSpec(index, header, letter, "ignored")
-    rest = gum.group("rest")
-    _, unit_text = split_header("u " + rest) if rest else ("", None)
-    if rest and unit_text is None:
-        unit_text = rest
     unit, unit_text = _resolve_unit(kind, unit_text, overrides.get(("uncertainty", kind.name)),
                                     where, problems, key=f"u({kind.synonyms[0]})")
     relative = unit is not None and units.is_relative_unit(unit)

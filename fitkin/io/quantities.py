@@ -103,9 +103,19 @@ _BY_NAME = {kind.name: kind for kind in QUANTITY_KINDS}
 
 
 def lookup_kind(name: str) -> QuantityKind | None:
-    """The kind a header name denotes (case-insensitive, any synonym or canonical name), or None."""
+    """The kind a header name denotes, or None.
+
+    Matches any synonym or canonical name case-insensitively; also a name followed by its
+    symbol when both denote the same kind (``'Viscosity η'``, ``'Temperature T'``).
+    """
     key = normalize_name(name)
-    return _BY_SYNONYM.get(key) or _BY_NAME.get(key)
+    found = _BY_SYNONYM.get(key) or _BY_NAME.get(key)
+    if found is None and " " in key:
+        phrase, symbol = key.rsplit(" ", 1)
+        first = _BY_SYNONYM.get(phrase) or _BY_NAME.get(phrase)
+        if first is not None and _BY_SYNONYM.get(symbol) is first:
+            found = first
+    return found
 
 
 def kind_by_name(name: str) -> QuantityKind:

@@ -243,15 +243,21 @@ class _TableBuilder:
         self.warnings += warnings
 
     def _check_stray_cells(self) -> None:
+        """One problem per column that holds values but has no header cell."""
         width = len(self.specs)
         blank_headers = {s.index for s in self.specs if s.role == "blank"}
+        stray: dict[int, list[tuple[int, object]]] = {}
         for row, cells in self.body:
             for index, cell in enumerate(cells):
-                if is_blank(cell) or (index < width and index not in blank_headers):
-                    continue
-                self.problems.append(InputError(
-                    f"a value ('{cell}') in a column without a header", file=self.file, row=row,
-                    column=column_letter(index), hint="give every column a header, or delete the cell"))
+                if not is_blank(cell) and (index >= width or index in blank_headers):
+                    stray.setdefault(index, []).append((row, cell))
+        for index, found in sorted(stray.items()):
+            row, cell = found[0]
+            more = f" and {len(found) - 1} more ({validate.format_rows(r for r, _ in found)})" \
+                if len(found) > 1 else ""
+            self.problems.append(InputError(
+                f"a value ('{cell}') in a column without a header{more}", file=self.file, row=row,
+                column=column_letter(index), hint="give every column a header, or delete the cells"))
 
     def _parse_column(self, spec: ColumnSpec, decimal_comma: bool) -> np.ndarray:
         """Numbers of one column, NaN for blank cells; at most MAX_CELL_PROBLEMS reported."""
