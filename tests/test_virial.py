@@ -63,7 +63,7 @@ def test_lj_published_table_values(t_star, published):
 
 def test_lj_agrees_with_closed_form_series():
     # Independent high-accuracy check: the Gamma-function series (see lj_series_b_star).
-    t = np.array([0.3, 0.5, 0.8, 1.0, 1.5, 2.0, 3.0, 5.0, 10.0, 30.0, 100.0, 400.0])
+    t = np.array([0.1, 0.2, 0.3, 0.5, 0.8, 1.0, 1.5, 2.0, 3.0, 5.0, 10.0, 30.0, 100.0, 400.0])
     expected = np.array([lj_series_b_star(x) for x in t])
     np.testing.assert_allclose(virial.reduced_second_virial(LJ, t), expected,
                                rtol=1e-11, atol=1e-12)
@@ -85,6 +85,18 @@ def test_mie_12_6_is_lj_and_steeper_walls_shift_b():
     # value 1 (common practice).
     steep = float(virial.reduced_second_virial(Mie(24, 6), 50.0))
     assert float(virial.reduced_second_virial(LJ, 50.0)) < steep < 1.0
+
+
+def test_tabulated_lj_reproduces_lj():
+    # A table of the 12-6 potential (σ = 3.405 Å, ε/k = 119.8 K) must give the analytic B*
+    # to the accuracy of its spline interpolation and C6 tail (self-consistency).
+    from fitkin.potentials import Tabulated
+    x = np.linspace(0.7, 5.0, 200)
+    table = Tabulated(x * 3.405, 4 * 119.8 * (x ** -12 - x ** -6), r_unit="angstrom",
+                      energy_unit="K")
+    t = np.array([0.8, 1.5, 5.0])
+    np.testing.assert_allclose(virial.reduced_second_virial(table, t),
+                               virial.reduced_second_virial(LJ, t), rtol=1e-3)
 
 
 def test_exp6_hard_core_handled():
@@ -119,11 +131,17 @@ def test_quantum_correction_raises_b_and_neon_size():
         virial.reduced_second_virial(LJ, 1.0, quantum=True)
 
 
-def test_de_boer_parameter_argon():
-    # Source: de Boer (1948) / Hirschfelder, Curtiss & Bird (1954), Table 6.5-1 (from
-    # memory): Λ* ≈ 0.186–0.19 for argon with LJ parameters.
-    lam = float(virial.de_boer_parameter(3.405e-10, 119.8, 39.948e-3))
+def test_quantum_b_matches_reduced_form_with_de_boer():
+    # second_virial must use Λ* = h/(σ√(mε)); argon's Λ* ≈ 0.186 (de Boer 1948, from memory).
+    from fitkin.theory.quantum import de_boer_parameter
+    lam = float(de_boer_parameter(39.948e-3, 3.405e-10, 119.8))
     assert 0.18 < lam < 0.20
+    t = 300.0 / 119.8
+    b_star = float(virial.reduced_second_virial(LJ, t, quantum=True, de_boer=lam))
+    b_si = float(virial.second_virial(LJ, 300.0, 3.405e-10, 119.8, quantum=True,
+                                      molar_mass=39.948e-3))
+    assert b_si == pytest.approx(b_star * float(virial.virial_reference_volume(3.405e-10)),
+                                 rel=1e-13)
 
 
 def test_argon_300K_against_coolprop():

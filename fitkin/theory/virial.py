@@ -23,17 +23,17 @@ from __future__ import annotations
 
 import numpy as np
 from numpy.polynomial.legendre import leggauss
-from scipy.constants import N_A, h, k as k_B
+from scipy.constants import N_A
 from scipy.optimize import brentq
 
 from fitkin.errors import FitkinError, OutOfRangeError, PotentialError
+from fitkin.theory.quantum import de_boer_parameter
 
 __all__ = [
     "reduced_second_virial",
     "first_quantum_term",
     "second_virial",
     "virial_reference_volume",
-    "de_boer_parameter",
     "boyle_temperature",
 ]
 
@@ -166,16 +166,6 @@ def virial_reference_volume(sigma):
     return 2.0 / 3.0 * np.pi * N_A * np.asarray(sigma, dtype=float) ** 3
 
 
-def de_boer_parameter(sigma, epsilon_over_k, molar_mass):
-    """Λ* = h / (σ (m ε)^{1/2}) for σ in m, ε/k in K, molar mass in kg/mol.
-
-    de Boer, J., Physica 14, 139 (1948); Hirschfelder, Curtiss & Bird (1954), eq. 6.5-4
-    (number from memory).  About 0.19 for argon, 0.59 for neon, 2.6 for helium-4.
-    """
-    mass = np.asarray(molar_mass, dtype=float) / N_A
-    return h / (np.asarray(sigma, dtype=float) * np.sqrt(mass * k_B * epsilon_over_k))
-
-
 def second_virial(potential, T, sigma, epsilon_over_k, *, quantum=False, molar_mass=None):
     """Second virial coefficient B(T) in m³/mol.
 
@@ -203,7 +193,7 @@ def second_virial(potential, T, sigma, epsilon_over_k, *, quantum=False, molar_m
     if quantum:
         if molar_mass is None or not molar_mass > 0:
             raise FitkinError("the quantum correction to B needs the molar mass in kg/mol")
-        de_boer = float(de_boer_parameter(sigma, epsilon_over_k, molar_mass))
+        de_boer = float(de_boer_parameter(molar_mass, sigma, epsilon_over_k))
     t_star = np.asarray(T, dtype=float) / epsilon_over_k
     b_star = reduced_second_virial(potential, t_star, quantum=quantum, de_boer=de_boer)
     return b_star * virial_reference_volume(sigma)
