@@ -9,7 +9,9 @@ Unit spellings accepted beyond pint's own grammar (see :func:`normalize_unit_tex
 * multiplication as a space, ``*``, ``·`` (U+00B7), ``⋅`` (U+22C5) or ``.``;
 * powers as ``^-1``, ``**-1``, unicode superscripts (``m⁻¹``) or a bare trailing integer
   (``W m-1 K-1``);
-* ``°C``, ``℃``, ``degC``, ``deg C``; ``°F``, ``℉``, ``degF``; ``K``;
+* ``°C``, ``℃``, ``degC``, ``deg C``, ``Celsius``; ``°F``, ``℉``, ``degF``, ``Fahrenheit``;
+  ``K`` (also the obsolete ``°K``); a degree sign not followed by C, F or K is an error
+  (pint would read it as an angle);
 * ``cP`` (centipoise), ``µP`` (micropoise), ``Torr``;
 * ``Btu`` means the International Table British thermal unit (``Btu_IT``, 1055.05585262 J,
   NIST SP 811 (2008), Appendix B), not pint's default ISO/EC Btu of 1055.056 J;
@@ -76,10 +78,11 @@ def normalize_unit_text(text: str) -> str:
     s = " ".join(str(text).strip().split())
     if s in _LAB_SHORTHANDS:
         s = _LAB_SHORTHANDS[s]
-    s = s.replace("℃", "degC").replace("℉", "degF")
-    s = re.sub(r"°\s*C\b", "degC", s)
-    s = re.sub(r"°\s*F\b", "degF", s)
-    s = re.sub(r"\bdeg\.?\s+([CF])\b", r"deg\1", s)
+    s = s.replace("℃", "degC").replace("℉", "degF").replace("\u212a", "K")  # U+212A KELVIN SIGN
+    s = re.sub(r"\b(?:deg(?:ree)?s?\.?\s*)?celsius\b", "degC", s, flags=re.IGNORECASE)
+    s = re.sub(r"\b(?:deg(?:ree)?s?\.?\s*)?fahrenheit\b", "degF", s, flags=re.IGNORECASE)
+    s = re.sub(r"(?:°|\bdeg\.?)\s*([CF])\b", r"deg\1", s)
+    s = re.sub(r"(?:°|\bdeg\.?)\s*K\b", "K", s)  # the obsolete '°K' is the kelvin
     s = s.replace("μ", "u").replace("µ", "u")
     s = s.replace("·", "*").replace("⋅", "*").replace("×", "*").replace("−", "-")
     s = _SUPERSCRIPT_RUN.sub(lambda m: "^" + m.group(1).translate(_SUPERSCRIPTS), s)
@@ -107,6 +110,10 @@ def parse_unit(text: str, *, file: str | None = None, column: str | None = None,
         raise UnitError("no unit given", file=file, row=row, column=column,
                         hint="write the unit in brackets, e.g. 'T [K]'")
     normalized = normalize_unit_text(raw)
+    if "°" in normalized or re.search(r"\bdeg\b", normalized):
+        # a lone degree sign is pint's angle degree: 'deg K' would be 0.0175 K
+        raise UnitError(f"cannot read the unit '{raw}': a degree sign must be followed by C or F",
+                        file=file, row=row, column=column, hint="write °C, °F or K")
     try:
         unit = ureg.parse_units(normalized)
     except Exception as exc:  # pint raises several unrelated exception types here

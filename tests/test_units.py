@@ -163,3 +163,22 @@ def test_single_registry_is_shared():
     product = units.parse_unit("Pa") * units.parse_unit("s")
     assert units.same_unit(product, units.ureg.parse_units("Pa*s"))
     assert math.isclose(units.ureg.Quantity(1, "cP").to("Pa*s").magnitude, 1e-3)
+
+
+@pytest.mark.parametrize("text", ["°K", "deg K", "degK", "\u212a"])
+def test_obsolete_degree_kelvin_and_kelvin_sign_are_the_kelvin(text):
+    # the degree-kelvin was renamed kelvin in 1967 (13th CGPM; SI Brochure, 9th ed., 2019)
+    assert units.same_unit(units.parse_unit(text), units.ureg.kelvin)
+
+
+@pytest.mark.parametrize("text", ["Celsius", "degrees Celsius", "deg. C", "° C"])
+def test_celsius_spelled_out(text):
+    assert units.to_si([0.0], units.parse_unit(text), "K")[0] == pytest.approx(273.15)
+
+
+@pytest.mark.parametrize("text", ["°", "deg", "deg*K*m"])
+def test_a_lone_degree_sign_is_not_read_as_an_angle(text):
+    # pint's 'deg' is the plane angle π/180; 'deg K' must not become 0.01745 K
+    with pytest.raises(UnitError) as info:
+        units.parse_unit(text)
+    assert "degree sign" in info.value.message
