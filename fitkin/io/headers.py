@@ -238,10 +238,13 @@ def _resolve_unit(kind, unit_text, override, where, problems, *, key):
     """Unit from the header, else from ``units=``; problems for none, unreadable, or a conflict."""
     if unit_text is None or unit_text == "":
         if override is None:
-            examples = ", ".join(f"'{kind.synonyms[0]} [{u}]'" for u in kind.common_units[:2])
+            examples = ", ".join(f"'{key} [{u}]'" for u in kind.common_units[:2])
+            if key.startswith("u(") and kind.role == "property":
+                examples += f", '{key} [%]'"
             problems.append(UnitError(f"the column has no unit; expected a unit of {kind.label}",
                                       **where, hint=f"write it in the header, e.g. {examples}, "
-                                      f"or pass units={{'{key}': ...}}"))
+                                      f"or supply it separately (units={{'{key}': ...}}; "
+                                      f"on the command line --unit {key}=...)"))
             return None, None
         unit_text = override
         try:

@@ -73,13 +73,13 @@ QUANTITY_KINDS: tuple[QuantityKind, ...] = (
         # dilute gases: about 2e-6 Pa s (heavy vapours, low T) to 2e-4 Pa s (noble gases at
         # a few thousand K); the window is wider by about a factor 10 on each side
         plausible=(1.0e-7, 1.0e-3), typical=2.0e-5,
-        common_units=("Pa s", "mPa s", "µPa s", "nPa s", "P", "cP", "µP", "lbf s/ft^2"),
+        common_units=("µPa s", "mPa s", "Pa s", "nPa s", "P", "cP", "µP", "lbf s/ft^2"),
     ),
     QuantityKind(
         name="conductivity", label="thermal conductivity", role="property", si_unit="W/(m K)",
         synonyms=("thermal conductivity", "conductivity", "k", "lambda", "λ"),
         plausible=(1.0e-3, 1.0), typical=2.5e-2,
-        common_units=("W/(m K)", "mW/(m K)", "µW/(m K)", "W/(cm K)", "cal/(s cm K)",
+        common_units=("mW/(m K)", "W/(m K)", "µW/(m K)", "W/(cm K)", "cal/(s cm K)",
                       "Btu/(h ft °F)"),
     ),
     QuantityKind(
