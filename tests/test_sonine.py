@@ -236,7 +236,7 @@ def test_vectorised_shape():
     assert sonine.viscosity_correction(hard_spheres, t, order=1).shape == (3, 4)
 
 
-@pytest.mark.parametrize("order", [0, -1, 7, 2.5, "3"])
+@pytest.mark.parametrize("order", [0, -1, 7, 2.5, "3", [3], True])
 def test_unsupported_orders_raise(order):
     with pytest.raises(OutOfRangeError, match="order"):
         sonine.viscosity_correction(hard_spheres, 1.0, order=order)
@@ -255,3 +255,19 @@ def test_bad_inputs_raise_project_errors():
         sonine.viscosity_correction(missing, np.array([1.0]), order=3)
     with pytest.raises(FitkinError):
         sonine.viscosity_correction(lambda l, s, t: -np.ones_like(t), 1.0, order=2)
+
+
+def test_lj_fourth_order_with_fitkin_collision_table():
+    # The fourth viscosity/conductivity approximations need (2,7), (2,8), (4,5), (4,6),
+    # beyond Kim–Monroe; fitkin's own LJ table (l ≤ 6, s ≤ 8) supplies them.  Checks:
+    # its 3rd approximation agrees with the one from the Kim–Monroe integrals (independent
+    # reference) to 2e-5, and the step from 3rd to 4th is small (measured ≤ 1.1e-4, for k).
+    collision = pytest.importorskip("fitkin.collision")
+    from fitkin.potentials import LennardJones
+    table = collision.collision_table(LennardJones())
+    for problem, fn in CORRECTIONS.items():
+        assert set(sonine.required_pairs(4, problem)) <= set(table.pairs)
+        f3 = fn(table.omega, LJ_T, order=3)
+        f4 = fn(table.omega, LJ_T, order=4)
+        np.testing.assert_allclose(f3, fn(lennard_jones, LJ_T, order=3), atol=2e-5)
+        assert np.all(f4 >= f3 - 1e-9) and np.max(f4 - f3) < 2e-4, problem

@@ -190,7 +190,6 @@ def _raw_brackets(rank, p_max):
     return np.einsum("pkna,qknij,n->pqaij", fu, fw, weights)
 
 
-@lru_cache(maxsize=None)
 def bracket_coefficients(problem, order, reduced=True):
     r"""Bracket integrals of the ``order``-th approximation as combinations of Ω(l,s).
 
@@ -216,13 +215,19 @@ def bracket_coefficients(problem, order, reduced=True):
     (Cambridge, 1970), §9.7 and §10.2; Hirschfelder, J. O., Curtiss, C. F. and Bird, R. B.,
     Molecular Theory of Gases and Liquids (Wiley, 1954), §7.3–7.4.
     """
-    if problem not in PROBLEMS:
+    if not isinstance(problem, str) or problem not in PROBLEMS:
         raise OutOfRangeError(
             f"unknown transport property {problem!r}; expected one of {sorted(PROBLEMS)}")
-    if not isinstance(order, (int, np.integer)) or not 1 <= order <= MAX_ORDER:
+    if (isinstance(order, bool) or not isinstance(order, (int, np.integer))
+            or not 1 <= order <= MAX_ORDER):
         raise OutOfRangeError(
             f"order of approximation {order!r} is not available; the Sonine brackets are "
             f"derived for integer orders 1 to {MAX_ORDER}")
+    return _bracket_table(problem, int(order), bool(reduced))
+
+
+@lru_cache(maxsize=None)
+def _bracket_table(problem, order, reduced):
     rank, pure, first = PROBLEMS[problem]
     raw = _raw_brackets(rank, first + order - 1)
     table = {}
