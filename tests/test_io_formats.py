@@ -220,3 +220,11 @@ def test_xlsx_formula_without_stored_value_is_an_error(tmp_path):
 def test_read_tables_accepts_a_single_path(tmp_path):
     (table,) = read_tables(write(tmp_path, "a.csv", CSV))
     assert len(table.get("viscosity")) == 2
+
+
+def test_utf8_bom_quotes_spaces_and_trailing_empty_header_cells(tmp_path):
+    path = tmp_path / "bom.csv"
+    path.write_bytes('\ufeff"T [K]", "Viscosity (μPa·s)",,\r\n"300" , 2.27E+01,,\r\n'.encode("utf-8"))
+    table = read_table(path)
+    assert table.columns == ("T [K]", "Viscosity (μPa·s)")
+    assert table.get("viscosity").value[0] == pytest.approx(22.7e-6)

@@ -82,7 +82,9 @@ def read_table(path, *, sheet: str | int | None = None, units: Mapping[str, str]
         raise InputError(f"the file is empty (it holds {what})", file=file,
                          hint="the first non-comment row must be a header such as 'T [K], viscosity [µPa s]'")
     header_row, header_cells = grid.rows[0]
-    header_cells = ["" if is_blank(c) else str(c) for c in header_cells]
+    header_cells = ["" if is_blank(c) else str(c).strip() for c in header_cells]
+    while header_cells and not header_cells[-1]:
+        header_cells.pop()  # trailing empty cells of spreadsheet exports
     specs, problems, warnings = parse_header(header_cells, row=header_row, file=file,
                                              overrides=overrides)
     _require_columns(specs, header_cells, header_row, file)
