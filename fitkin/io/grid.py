@@ -129,7 +129,7 @@ def _split_text(text: str, path: str) -> CellGrid:
             starts.append(number)
             yield line
 
-    reader = csv.reader(feed(), delimiter=grid.delimiter)
+    reader = csv.reader(feed(), delimiter=grid.delimiter, skipinitialspace=True)
     while True:
         consumed = len(starts)
         try:
@@ -173,7 +173,7 @@ def delimiter_name(delimiter: str | None) -> str:
 
 def _count_cells(line: str, delimiter: str) -> int:
     try:
-        cells = next(csv.reader([line], delimiter=delimiter))
+        cells = next(csv.reader([line], delimiter=delimiter, skipinitialspace=True))
     except (csv.Error, StopIteration):
         return 0
     while cells and not cells[-1].strip():
