@@ -1,0 +1,264 @@
+"""The outcome of posterior sampling: draws, summaries, the record section and the samples file.
+
+A :class:`Posterior` holds the retained draws (after burn-in and thinning) of every sampled
+parameter — σ in Å, ε/k in K, free shape parameters, and nuisance parameters (extra scatter,
+calibration factors). :meth:`Posterior.to_record` gives the ``"posterior"`` section of the
+parameter file; :func:`save_samples` writes the draws to a compressed ``.npz`` next to it and
+returns the reference (relative path and SHA-256) that the section carries.
+
+Posterior predictive bands (:func:`predictive_band`) push parameter draws through any
+property function and take pointwise quantiles: the credible band of the model curve (the
+measurement noise is not added).
+"""
+from __future__ import annotations
+
+import hashlib
+import io
+import os
+from dataclasses import dataclass, field
+from pathlib import Path
+
+import numpy as np
+
+from ..errors import FitkinError, ParameterFileError
+from ..io.atomic import write_bytes_atomic
+from .diagnostics import Diagnostics
+
+__all__ = ["Posterior", "save_samples", "load_samples", "posterior_draws", "predictive_band",
+           "SAMPLES_NAME", "PERCENTILES"]
+
+SAMPLES_NAME = "samples.npz"
+#: Reported percentiles: median, ±1σ-equivalent (16/84) and 95 % (2.5/97.5) central intervals.
+PERCENTILES = {"p2_5": 2.5, "p16": 16.0, "median": 50.0, "p84": 84.0, "p97_5": 97.5}
+
+
+@dataclass(frozen=True)
+class Posterior:
+    """Posterior draws of one fit and how they were obtained.
+
+    Attributes
+    ----------
+    names : sampled parameter names (physical first, then nuisance).
+    units : unit of each name ("angstrom", "K", "1").
+    samples : (draws, dim) retained draws.   log_prob : (draws,) log posterior (up to a constant).
+    diagnostics : convergence diagnostics.   seed : the seed of the run.
+    priors, likelihood : descriptions for the record.
+    start : the least-squares FitResult the sampler started from.
+    fixed : parameters held fixed (shape parameters not sampled), {name: value}.
+    sources : {source: {"points": n, "chi2_at_median": χ²}}.
+    warnings : plain-language findings.
+    sampler : {"method": ..., "emcee_version": ..., "walkers": ...}.
+    """
+
+    names: tuple
+    units: tuple
+    samples: np.ndarray
+    log_prob: np.ndarray
+    diagnostics: Diagnostics
+    seed: int
+    priors: dict
+    likelihood: dict
+    start: object
+    fixed: dict = field(default_factory=dict)
+    sources: dict = field(default_factory=dict)
+    warnings: tuple = ()
+    sampler: dict = field(default_factory=dict)
+
+    # -- summaries ----------------------------------------------------------------------
+    @property
+    def converged(self) -> bool:
+        return bool(self.diagnostics.converged)
+
+    @property
+    def convergence_message(self) -> str:
+        if self.converged:
+            d = self.diagnostics
+            return (f"converged: {d.steps} steps = {d.steps / max(d.tau):.0f} autocorrelation times, "
+                    f"max split-R̂ {np.nanmax(d.rhat):.3f}")
+        return "NOT CONVERGED: " + "; ".join(self.diagnostics.reasons)
+
+    def column(self, name: str) -> np.ndarray:
+        if name not in self.names:
+            raise FitkinError(f"no sampled parameter '{name}'; sampled: {', '.join(self.names)}")
+        return self.samples[:, self.names.index(name)]
+
+    def percentile(self, name: str, q) -> np.ndarray:
+        return np.percentile(self.column(name), q)
+
+    def median(self, name: str) -> float:
+        return float(np.median(self.column(name)))
+
+    def interval(self, name: str, probability: float = 0.68) -> tuple[float, float]:
+        """Central credible interval of ``probability`` for one parameter."""
+        lo, hi = np.percentile(self.column(name), [50 - 50 * probability, 50 + 50 * probability])
+        return float(lo), float(hi)
+
+    def summary(self) -> dict:
+        """{name: {unit, median, p16, p84, p2_5, p97_5, mean, sd}}."""
+        out = {}
+        for j, n in enumerate(self.names):
+            x = self.samples[:, j]
+            q = np.percentile(x, list(PERCENTILES.values()))
+            out[n] = {"unit": self.units[j], **dict(zip(PERCENTILES, map(float, q))),
+                      "mean": float(x.mean()), "sd": float(x.std(ddof=1))}
+        return out
+
+    @property
+    def covariance(self) -> np.ndarray:
+        return np.atleast_2d(np.cov(self.samples, rowvar=False))
+
+    @property
+    def correlation(self) -> np.ndarray:
+        c = self.covariance
+        d = np.sqrt(np.diag(c))
+        with np.errstate(invalid="ignore", divide="ignore"):
+            return c / np.outer(d, d)
+
+    def draws(self, n: int | None = None, seed: int | None = None) -> list[dict]:
+        """Parameter draws as θ dicts (with fixed parameters), all or ``n`` chosen at random."""
+        rows = self.samples
+        if n is not None and n < len(rows):
+            rng = np.random.default_rng(self.seed if seed is None else seed)
+            rows = rows[rng.choice(len(rows), n, replace=False)]
+        return [{**self.fixed, **dict(zip(self.names, map(float, r)))} for r in rows]
+
+    def least_squares_comparison(self) -> dict:
+        """Posterior sd versus the least-squares standard error for each fitted parameter."""
+        out = {}
+        for n in self.names:
+            p = getattr(self.start, "parameters", {}).get(n)
+            if p is None or not p.vary:
+                continue
+            sd = float(np.std(self.column(n), ddof=1))
+            out[n] = {"least_squares_value": p.value, "least_squares_stderr": p.stderr, "posterior_sd": sd,
+                      "ratio_sd_to_stderr": sd / p.stderr if p.stderr and np.isfinite(p.stderr) else None}
+        return out
+
+    # -- record -------------------------------------------------------------------------
+    def to_record(self, samples: dict | None = None) -> dict:
+        """The ``"posterior"`` section of the parameter file.
+
+        ``samples`` is the reference returned by :func:`save_samples` (relative path, SHA-256);
+        without it the section says the draws were not saved.
+        """
+        names = list(self.names)
+        return {
+            **self.sampler,
+            "seed": int(self.seed),
+            "converged": self.converged,
+            "convergence_message": self.convergence_message,
+            "parameters": self.summary(),
+            "correlation": {"names": names, "matrix": self.correlation.tolist()},
+            "covariance": {"names": names, "units": list(self.units), "matrix": self.covariance.tolist()},
+            "fixed": dict(self.fixed),
+            "priors": self.priors,
+            "likelihood": self.likelihood,
+            "sources": self.sources,
+            "least_squares_comparison": self.least_squares_comparison(),
+            "diagnostics": self.diagnostics.to_record(),
+            "samples": samples if samples is not None else {"file": None, "note": "draws not saved"},
+            "warnings": list(self.warnings),
+        }
+
+
+def _npz_bytes(posterior: Posterior) -> bytes:
+    buf = io.BytesIO()
+    np.savez_compressed(buf, names=np.array(posterior.names, dtype=str), units=np.array(posterior.units, dtype=str),
+                        samples=np.asarray(posterior.samples, dtype=float),
+                        log_prob=np.asarray(posterior.log_prob, dtype=float), seed=np.array(posterior.seed))
+    return buf.getvalue()
+
+
+def save_samples(posterior: Posterior, path, force: bool = False, relative_to=None) -> dict:
+    """Write the draws to ``path`` (compressed npz), atomically; return the record reference.
+
+    Parameters
+    ----------
+    path : the .npz file, normally ``SAMPLES_NAME`` beside parameters.json.
+    force : replace an existing file (otherwise :class:`~fitkin.errors.OutputExistsError`).
+    relative_to : folder the reference's path is relative to (default: the file's folder,
+        i.e. the parameter file sits beside it).
+
+    Returns
+    -------
+    {"file": relative path, "sha256": hex digest, "format": ..., "arrays": [...], "draws": n, "names": [...]}
+    """
+    data = _npz_bytes(posterior)
+    p = write_bytes_atomic(path, data, force=force)
+    base = Path(relative_to) if relative_to is not None else p.parent
+    return {"file": os.path.relpath(p, base), "sha256": hashlib.sha256(data).hexdigest(),
+            "format": "numpy .npz (savez_compressed)", "arrays": ["names", "units", "samples", "log_prob", "seed"],
+            "draws": int(len(posterior.samples)), "names": list(posterior.names)}
+
+
+def load_samples(reference: dict, base_dir) -> tuple[list[str], np.ndarray]:
+    """(names, samples (draws, dim)) from a record's ``samples`` reference, checking its SHA-256."""
+    if not reference or not reference.get("file"):
+        raise ParameterFileError("this parameter file references no posterior samples")
+    p = Path(base_dir) / reference["file"]
+    if not p.is_file():
+        raise ParameterFileError(f"the posterior samples file {p} named in the parameter file is missing")
+    data = p.read_bytes()
+    digest = hashlib.sha256(data).hexdigest()
+    if reference.get("sha256") and digest != reference["sha256"]:
+        raise ParameterFileError(f"{p} does not match the SHA-256 recorded in the parameter file "
+                                 "(the samples were changed or belong to another fit)")
+    try:
+        with np.load(io.BytesIO(data), allow_pickle=False) as z:
+            return [str(n) for n in z["names"]], np.asarray(z["samples"], dtype=float)
+    except (ValueError, KeyError, OSError) as exc:
+        raise ParameterFileError(f"{p} is not a readable fitkin samples file: {exc}") from None
+
+
+def posterior_draws(record: dict, base_dir, max_draws: int | None = None, seed: int = 0) -> list[dict]:
+    """θ dicts from a parameter-file record whose ``posterior.samples`` references a file.
+
+    Values of parameters not sampled are taken from ``record["parameters"]``.
+    """
+    post = record.get("posterior") or {}
+    names, samples = load_samples(post.get("samples") or {}, base_dir)
+    base = {k: v.get("value") for k, v in (record.get("parameters") or {}).items()}
+    base.update(post.get("fixed") or {})
+    if max_draws is not None and len(samples) > max_draws:
+        samples = samples[np.random.default_rng(seed).choice(len(samples), max_draws, replace=False)]
+    return [{**base, **dict(zip(names, map(float, row)))} for row in samples]
+
+
+def predictive_band(draws, kind: str, T, evaluate, *, band: float = 0.95, pressure=None, names=None,
+                    base: dict | None = None, max_draws: int = 400, seed: int = 0):
+    """Pointwise posterior median and central ``band`` limits of a property curve.
+
+    Parameters
+    ----------
+    draws : list of θ dicts, a (draws, dim) array with ``names``, or a :class:`Posterior`.
+    kind : property passed to ``evaluate`` ('viscosity', 'conductivity', 'self_diffusion').
+    T : temperatures in K, (m,).
+    evaluate : callable ``evaluate(kind, theta, T, pressure)`` → (m,) SI values
+        (e.g. ``FittedGas._evaluate``).
+    band : central probability, 0 < band < 1.   pressure : Pa, for diffusion.
+    base : values of parameters absent from the draws.   max_draws : at most this many
+        draws are used (chosen with ``seed``).
+
+    Returns
+    -------
+    (median, lower, upper), each (m,) in SI.
+    """
+    if not 0 < band < 1:
+        raise FitkinError(f"band must be a probability between 0 and 1, got {band}")
+    if isinstance(draws, Posterior):
+        thetas = draws.draws()
+    elif isinstance(draws, np.ndarray):
+        if names is None or draws.ndim != 2 or draws.shape[1] != len(names):
+            raise FitkinError("an array of draws needs names, one per column")
+        thetas = [dict(zip(names, map(float, row))) for row in draws]
+    else:
+        thetas = list(draws)
+    if not thetas:
+        raise FitkinError("no parameter draws to compute a band from")
+    if len(thetas) > max_draws:
+        pick = np.random.default_rng(seed).choice(len(thetas), max_draws, replace=False)
+        thetas = [thetas[i] for i in pick]
+    T = np.atleast_1d(np.asarray(T, dtype=float))
+    values = np.array([evaluate(kind, {**(base or {}), **th}, T, pressure) for th in thetas])
+    lo, med, hi = np.quantile(values, [0.5 - band / 2, 0.5, 0.5 + band / 2], axis=0)
+    return med, lo, hi
