@@ -210,3 +210,13 @@ def test_temperature_without_property_value_is_warned(tmp_path):
     table = read_table(write(tmp_path, "x.csv", text))
     assert len(table.get("viscosity")) == 1
     assert any("row 3" in w and "no property value" in w for w in table.warnings)
+
+
+def test_only_kinds_fitkin_fits_become_series(tmp_path, monkeypatch):
+    # a registered property kind not (yet) in PROPERTY_KINDS: its cells are parsed, then ignored
+    import fitkin.io.tables as tables
+    monkeypatch.setattr(tables, "PROPERTY_KINDS", ("viscosity",))
+    path = write(tmp_path, "m.csv", "T [K],viscosity [uPa s],k [mW/(m K)]\n300,22.7,17.8\n")
+    table = tables.read_table(path)
+    assert [s.kind for s in table.series] == ["viscosity"]
+    assert any("k [mW/(m K)]" in w and "does not fit" in w for w in table.warnings)

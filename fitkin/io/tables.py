@@ -160,8 +160,8 @@ def _require_columns(specs: list[ColumnSpec], cells: list[str], row: int, file: 
         raise InputError("no temperature column", file=file, row=row,
                          hint=missing_header if header_looks_numeric else
                          "name one column 'T', 'temperature' or 'temp' with its unit, e.g. 'T [K]'")
-    if not any(s.role == "quantity" and s.kind.role == "property" for s in specs):
-        names = " or ".join(f"'{k.synonyms[0]}'" for k in QUANTITY_KINDS if k.role == "property")
+    if not any(s.role == "quantity" and s.kind.name in PROPERTY_KINDS for s in specs):
+        names = " or ".join(f"'{k.synonyms[0]}'" for k in QUANTITY_KINDS if k.name in PROPERTY_KINDS)
         raise InputError("no property column", file=file, row=row,
                          hint=f"name a column {names} (or a synonym) with its unit, "
                          "e.g. 'viscosity [µPa s]'")
@@ -232,6 +232,10 @@ class _TableBuilder:
         for spec in numeric:
             if spec.role == "uncertainty" and spec.kind.role != "property" and spec.unit is not None:
                 self._unused_uncertainty(spec, raw, si)
+            if spec.role == "quantity" and spec.kind.role == "property" \
+                    and spec.kind.name not in PROPERTY_KINDS:
+                self.warnings.append(f"{self.file}: column '{spec.header}' holds {spec.kind.label}, "
+                                     "which fitkin does not fit; ignored")
         idle = np.isfinite(kelvin) & ~measured_any
         if idle.any():
             self.warnings.append(f"{self.file}: {validate.format_rows(self.rows[idle])}: a temperature "
