@@ -39,6 +39,8 @@ The coefficients come out in floating point, correct to about 1e-12 relative; th
 recover the published exact fractions from them (e.g. 4Ω(2,2), 7Ω(2,2) − 2Ω(2,3),
 (301/12)Ω(2,2) − 7Ω(2,3) + Ω(2,4) and (77/4)Ω(2,2) − 7Ω(2,3) + Ω(2,4) of Chapman & Cowling
 1970, §9.7/§10.2, and Hirschfelder, Curtiss & Bird 1954, eqs. 7.4-41 to 7.4-47).
+
+Equation and section numbers of the two books are quoted from memory.
 """
 from __future__ import annotations
 

@@ -8,8 +8,14 @@ first approximation times a factor
 where M is the N × N matrix of bracket integrals of the Sonine trial functions (see
 :mod:`fitkin.theory.brackets`), because the source term of each integral equation projects
 onto the first trial function only.  This is the determinant ratio of Chapman & Cowling
-(1970, eqs. 9.8,3 and 9.8,4 / 10.2) and Hirschfelder, Curtiss & Bird (1954, eqs. 7.3-67 and
-7.3-68); it increases monotonically with N (variational principle).
+(1970, §9.8 and §10.2) and Hirschfelder, Curtiss & Bird (1954, eqs. 7.3-67 and 7.3-68); it
+increases monotonically with N (variational principle).  Equation and section numbers of
+these books are quoted from memory.
+
+Measured with these brackets: rigid spheres give f_μ = 1, 1.014851, 1.015879, 1.016006,
+1.016028, 1.016032 (orders 1–6; limit 1.016034), f_k = 1, 1.022727, 1.024819, 1.025134,
+1.025197, 1.025212 (limit 1.025218) and f_D = 1, 1.017241, 1.018690, 1.018900, 1.018940,
+1.018950.
 
 The first approximations that these factors multiply are (Hirschfelder, Curtiss & Bird 1954,
 §8.2; Chapman & Cowling 1970, §10.2):
@@ -141,7 +147,8 @@ def viscosity_correction(omega, T_star, order=3):
     ----------
     Chapman & Cowling, The Mathematical Theory of Non-uniform Gases, 3rd ed. (1970), §9.7,
     §10.2; Hirschfelder, Curtiss & Bird, Molecular Theory of Gases and Liquids (1954),
-    eq. 7.3-68 and §8.2.  Rigid spheres converge to 1.016034 (Chapman & Cowling 1970, §10.21).
+    eq. 7.3-68 and §8.2.  Rigid spheres converge to 1.016034 (Chapman & Cowling 1970,
+    §10.21, from memory).
     """
     return _correction("viscosity", omega, T_star, order)
 
@@ -154,7 +161,8 @@ def conductivity_correction(omega, T_star, order=3):
     References
     ----------
     Chapman & Cowling (1970), §9.7, §10.2; Hirschfelder, Curtiss & Bird (1954), eq. 7.3-67
-    and §8.2.  Rigid spheres converge to 1.025218 (Chapman & Cowling 1970, §10.21).
+    and §8.2.  Rigid spheres converge to 1.025218 (Chapman & Cowling 1970, §10.21, from
+    memory).
     """
     return _correction("conductivity", omega, T_star, order)
 
@@ -188,7 +196,8 @@ def kihara_viscosity_correction(omega, T_star):
     off-diagonal one: with b₀₀ = 4Ω(2,2), b₀₁ = 7Ω(2,2) − 2Ω(2,3) = Ω(2,2)(7 − 8E*) and
     b₁₁ ≈ (49/3)Ω(2,2), f ≈ 1 + b₀₁²/(b₀₀ b₁₁).  Derived here from the brackets of
     :mod:`fitkin.theory.brackets` and in agreement with Hirschfelder, Curtiss & Bird
-    (1954), eq. 8.2-9 (number from memory); Kihara, T., Imperfect Gases (1949, in Japanese).
+    (1954), eq. 8.2-9 (number from memory); Kihara, T., Imperfect Gases (Asakura, Tokyo,
+    1949; reference from memory).
 
     Parameters
     ----------
