@@ -13,7 +13,8 @@ def test_describe_names_points_range_units_uncertainties_sources_and_warnings(tm
     lines = describe_table(read_table(path))
     text = "\n".join(lines)
     assert lines[0].startswith("argon_2026.csv")
-    assert "viscosity: 3 points, 300.00 K to 500.00 K, unit 'µPa s' in the header" in text
+    assert ("viscosity: 3 points, 300.00 K to 500.00 K, unit 'µPa s' in the header, "
+            "pressure 100 kPa to 3000 kPa") in text
     assert "thermal conductivity: 2 points, 300.00 K to 500.00 K, unit 'mW/(m K)'" in text
     assert "absolute, in 'µPa s'" in text
     assert "relative, in % of the value" in text
@@ -28,3 +29,10 @@ def test_describe_without_uncertainty_or_source(tmp_path):
     assert "viscosity: 1 point," in text
     assert "none stated" in text and "plain (1)" in text
     assert "warning" not in text
+
+
+def test_describe_says_when_the_unit_was_given_separately(tmp_path):
+    path = tmp_path / "bare.csv"
+    path.write_text("T,viscosity\n300,22.7\n", encoding="utf-8")
+    text = "\n".join(describe_table(read_table(path, units={"T": "K", "viscosity": "µPa s"})))
+    assert "unit 'µPa s' (given separately, not in the header)" in text

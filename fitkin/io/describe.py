@@ -6,7 +6,7 @@ from pathlib import Path
 
 import numpy as np
 
-from fitkin.io.headers import gum_parts
+from fitkin.io.headers import gum_parts, split_header
 from fitkin.io.quantities import kind_by_name, lookup_kind
 from fitkin.measurements import MeasuredTable, PropertySeries
 
@@ -27,7 +27,8 @@ def describe_table(table: MeasuredTable) -> list[str]:
     lines = [f"{Path(table.path).name} (sha256 {table.sha256[:12]}…)"]
     for series in table.series:
         lines.append(f"  {_label(series.kind)}: {_points(series)}, {_range(series)}, "
-                     f"unit '{series.unit}' in the header")
+                     f"unit '{series.unit}' {_unit_origin(series.kind, table.columns)}"
+                     f"{_pressures(series)}")
         lines.append(f"    uncertainty: {_uncertainty(series, table.columns)}; "
                      f"sources: {_sources(series)}")
     lines.extend(f"  warning: {w}" for w in table.warnings)
@@ -49,6 +50,25 @@ def _range(series: PropertySeries) -> str:
     if not len(series):
         return "no temperatures"
     return f"{np.min(series.temperature):.2f} K to {np.max(series.temperature):.2f} K"
+
+
+def _unit_origin(kind: str, columns) -> str:
+    for header in columns:
+        if gum_parts(header):
+            continue
+        name, unit = split_header(header)
+        found = lookup_kind(name)
+        if found is not None and found.name == kind:
+            return "in the header" if unit else "(given separately, not in the header)"
+    return "in the header"
+
+
+def _pressures(series: PropertySeries) -> str:
+    stated = np.isfinite(series.pressure)
+    if not stated.any():
+        return ""
+    low, high = np.min(series.pressure[stated]), np.max(series.pressure[stated])
+    return f", pressure {low / 1e3:.4g} kPa to {high / 1e3:.4g} kPa"
 
 
 def _uncertainty(series: PropertySeries, columns) -> str:
