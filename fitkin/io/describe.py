@@ -73,7 +73,7 @@ def _pressures(series: PropertySeries) -> str:
 
 def _uncertainty(series: PropertySeries, columns) -> str:
     if series.uncertainty_kind == "none":
-        return "none stated (points will be weighted equally)"
+        return "none stated"
     unit = _uncertainty_unit(series.kind, columns)
     if series.uncertainty_kind == "relative":
         return f"relative, in {unit or '%'} of the value"
