@@ -79,6 +79,13 @@ class ScatteringResolution:
     n_tail: int = 24
     n_contact: int = 32
 
+    def scaled(self, factor: float) -> "ScatteringResolution":
+        """The same layout with every node count multiplied by ``factor`` (rounded)."""
+        k = lambda n, least: max(least, int(round(n * factor)))  # noqa: E731
+        return ScatteringResolution(
+            n_phi=k(self.n_phi, 4), n_panel=k(self.n_panel, 4), log_panels=self.log_panels,
+            n_plain=k(self.n_plain, 8), n_tail=k(self.n_tail, 6), n_contact=k(self.n_contact, 6))
+
     def coarser(self) -> "ScatteringResolution":
         """About two thirds of the nodes everywhere (for the convergence estimate)."""
         return ScatteringResolution(

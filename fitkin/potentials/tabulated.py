@@ -68,6 +68,9 @@ class Tabulated(Potential):
     ----------
     sigma : zero crossing σ of the table, m.
     epsilon_over_k : well depth ε/k_B of the table, K.
+    max_energy_star : U/ε at the first (innermost) table point; collision integrals are
+        offered only up to T* = max_energy_star / 10, since hotter collisions would probe
+        the extrapolated wall.
 
     Raises
     ------
@@ -144,6 +147,7 @@ class Tabulated(Potential):
         if not p > 0:
             raise PotentialError(f"tabulated potential{where}: the wall is not repulsive at the first point")
         self._wall = (u0 * x0 ** p, p)
+        self.max_energy_star = float(u0)
         # long-range tail -C6 x^-6 - C8 x^-8, matched in value and slope at the last point
         xn, un = self._x[-1], self._u[-1]
         dn = float(self._dspline(xn)) / xn ** 6 - 6.0 * un / xn
