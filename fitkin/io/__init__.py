@@ -1,6 +1,7 @@
 """Reading measured tables: files in, validated SI :class:`~fitkin.measurements.MeasuredTable` out.
 
-Modules: :mod:`~fitkin.io.tables` (the readers), :mod:`~fitkin.io.grid` and
+Modules: :mod:`~fitkin.io.tables` (the readers), :mod:`~fitkin.io.assemble` (cells to SI
+series), :mod:`~fitkin.io.grid` and
 :mod:`~fitkin.io.workbook` (bytes to cells), :mod:`~fitkin.io.numbers` (numeric cells),
 :mod:`~fitkin.io.headers` (header cells), :mod:`~fitkin.io.quantities` (the registry of
 quantity kinds), :mod:`~fitkin.io.validate` (checks), :mod:`~fitkin.io.describe` (summary).

@@ -1,0 +1,237 @@
+"""Assembling the body of a table: cells to SI arrays, checks, and PropertySeries.
+
+The header has been read already (:mod:`fitkin.io.headers`); here every cell of every
+numeric column is parsed, converted once to SI and checked (:mod:`fitkin.io.validate`), and
+one :class:`~fitkin.measurements.PropertySeries` is made per property kind that has values.
+"""
+from __future__ import annotations
+
+from pathlib import Path
+
+import numpy as np
+
+from fitkin import units
+from fitkin.errors import InputError
+from fitkin.io import validate
+from fitkin.io.headers import ColumnSpec, column_letter
+from fitkin.io.numbers import CellValueError, detect_decimal_comma, is_blank, parse_number
+from fitkin.measurements import PROPERTY_KINDS, PropertySeries
+
+__all__ = ["TableAssembler", "MAX_CELL_PROBLEMS"]
+
+#: Non-numeric cells listed one by one per column; the rest are summarised in one problem.
+MAX_CELL_PROBLEMS = 10
+
+
+class TableAssembler:
+    """Parses, converts and checks the body of one table; collects problems and warnings.
+
+    Parameters
+    ----------
+    file : the file, for messages and the default source label (its stem).
+    specs : the header's column specs.
+    body : the data rows as (row number, cells).
+    pressure_limit : Pa, or None.
+
+    After :meth:`run`: ``series`` (one PropertySeries per property with values, in the order
+    of PROPERTY_KINDS), ``problems`` (InputErrors) and ``warnings`` (str).
+    """
+
+    def __init__(self, file: str, specs: list[ColumnSpec], body: list[tuple[int, list]],
+                 pressure_limit: float | None):
+        self.file = file
+        self.specs = specs
+        self.body = body
+        self.rows = np.array([r for r, _ in body], dtype=int)
+        self.pressure_limit = pressure_limit
+        self.problems: list[InputError] = []
+        self.warnings: list[str] = []
+        self.series: list[PropertySeries] = []
+
+    def cell(self, i: int, index: int):
+        cells = self.body[i][1]
+        return cells[index] if index < len(cells) else ""
+
+    def run(self) -> None:
+        self._check_stray_cells()
+        numeric = [s for s in self.specs if s.role in ("quantity", "uncertainty")]
+        decimal_comma, _ = detect_decimal_comma(
+            self.cell(i, s.index) for s in numeric for i in range(len(self.body)))
+        raw = {s.index: self._parse_column(s, decimal_comma) for s in numeric}
+        quantities: dict[str, ColumnSpec] = {}
+        for s in self.specs:
+            if s.role == "quantity":
+                quantities.setdefault(s.kind.name, s)
+        si = {}
+        for spec in numeric:
+            if spec.role == "quantity" and spec.unit is not None and quantities[spec.kind.name] is spec:
+                si[spec.kind.name] = units.to_si(raw[spec.index], spec.unit, spec.kind.si_unit)
+        temperature = quantities["temperature"]
+        kelvin = si.get("temperature", np.full(len(self.rows), np.nan))
+        if "temperature" in si:
+            self._collect(validate.check_temperature(temperature, raw[temperature.index], kelvin,
+                                                     self.rows, self.file))
+        pressure = self._pressure(quantities, raw, si)
+        sources = self._sources()
+        measured_any = np.zeros(len(self.rows), dtype=bool)
+        for kind in PROPERTY_KINDS:
+            spec = quantities.get(kind)
+            if spec is None:
+                continue
+            values = raw[spec.index]
+            measured_any |= np.isfinite(values)
+            self._check_temperature_present(temperature, values, kelvin, spec)
+            if kind not in si:
+                continue
+            self.problems += validate.check_positive(spec, values, si[kind], self.rows, self.file)
+            self.problems += validate.check_plausible(spec, values, si[kind], self.rows, self.file)
+            u_spec = self._uncertainty_spec(kind)
+            u_si = self._uncertainty(u_spec, raw, si[kind], spec)
+            self._add_series(spec, kelvin, si[kind], u_si, u_spec, pressure, sources)
+        for spec in numeric:
+            if spec.role == "uncertainty" and spec.kind.role != "property" and spec.unit is not None:
+                self._unused_uncertainty(spec, raw, si)
+            if spec.role == "quantity" and spec.kind.role == "property" \
+                    and spec.kind.name not in PROPERTY_KINDS:
+                self.warnings.append(f"{self.file}: column '{spec.header}' holds {spec.kind.label}, "
+                                     "which fitkin does not fit; ignored")
+        idle = np.isfinite(kelvin) & ~measured_any
+        if idle.any():
+            self.warnings.append(f"{self.file}: {validate.format_rows(self.rows[idle])}: a temperature "
+                                 "but no property value; ignored")
+
+    # --- steps -----------------------------------------------------------------------------
+
+    def _collect(self, result) -> None:
+        problems, warnings = result
+        self.problems += problems
+        self.warnings += warnings
+
+    def _check_stray_cells(self) -> None:
+        """One problem per column that holds values but has no header cell."""
+        width = len(self.specs)
+        blank_headers = {s.index for s in self.specs if s.role == "blank"}
+        stray: dict[int, list[tuple[int, object]]] = {}
+        for row, cells in self.body:
+            for index, cell in enumerate(cells):
+                if not is_blank(cell) and (index >= width or index in blank_headers):
+                    stray.setdefault(index, []).append((row, cell))
+        for index, found in sorted(stray.items()):
+            row, cell = found[0]
+            more = f" and {len(found) - 1} more ({validate.format_rows(r for r, _ in found)})" \
+                if len(found) > 1 else ""
+            self.problems.append(InputError(
+                f"a value ('{cell}') in a column without a header{more}", file=self.file, row=row,
+                column=column_letter(index), hint="give every column a header, or delete the cells"))
+
+    def _parse_column(self, spec: ColumnSpec, decimal_comma: bool) -> np.ndarray:
+        """Numbers of one column, NaN for blank cells; at most MAX_CELL_PROBLEMS reported."""
+        values = np.full(len(self.body), np.nan)
+        bad_rows = []
+        for i, (row, _) in enumerate(self.body):
+            cell = self.cell(i, spec.index)
+            if is_blank(cell):
+                continue
+            try:
+                values[i] = parse_number(cell, decimal_comma=decimal_comma)
+            except CellValueError as exc:
+                bad_rows.append(row)
+                if len(bad_rows) <= MAX_CELL_PROBLEMS:
+                    self.problems.append(InputError(exc.message, file=self.file, row=row,
+                                                    column=spec.header, hint=exc.hint))
+        if len(bad_rows) > MAX_CELL_PROBLEMS:
+            rest = bad_rows[MAX_CELL_PROBLEMS:]
+            self.problems.append(InputError(
+                f"{len(rest)} more cells that are not numbers ({validate.format_rows(rest)})",
+                file=self.file, row=rest[0], column=spec.header,
+                hint="the first ones are listed above; is the column separator or the decimal "
+                "separator what the file uses?"))
+        return values
+
+    def _pressure(self, quantities, raw, si) -> np.ndarray:
+        spec = quantities.get("pressure")
+        if spec is None or "pressure" not in si:
+            return np.full(len(self.rows), np.nan)
+        pascal = si["pressure"]
+        self.problems += validate.check_positive(spec, raw[spec.index], pascal, self.rows, self.file,
+                                                 label="an absolute pressure")
+        warning = validate.pressure_warning(spec, pascal, self.rows, self.file, self.pressure_limit)
+        if warning:
+            self.warnings.append(warning)
+        return pascal
+
+    def _sources(self) -> np.ndarray:
+        default = Path(self.file).stem
+        labels = np.full(len(self.rows), default, dtype=object)
+        spec = next((s for s in self.specs if s.role == "source"), None)
+        if spec is None:
+            return labels
+        blank = []
+        for i in range(len(self.body)):
+            cell = self.cell(i, spec.index)
+            if is_blank(cell):
+                blank.append(self.rows[i])
+            else:
+                labels[i] = _label(cell)
+        if blank:
+            self.warnings.append(f"{self.file}: column '{spec.header}', {validate.format_rows(blank)}: "
+                                 f"no source label; labelled '{default}'")
+        return labels
+
+    def _check_temperature_present(self, temperature, values, kelvin, spec) -> None:
+        raw_t = self._raw_blank(temperature.index)
+        for i in np.flatnonzero(np.isfinite(values) & raw_t):
+            self.problems.append(InputError(
+                f"a {spec.kind.label} value but no temperature", file=self.file, row=int(self.rows[i]),
+                column=temperature.header, hint="every measured point needs its temperature"))
+
+    def _raw_blank(self, index: int) -> np.ndarray:
+        return np.array([is_blank(self.cell(i, index)) for i in range(len(self.body))], dtype=bool)
+
+    def _uncertainty_spec(self, kind: str) -> ColumnSpec | None:
+        return next((s for s in self.specs if s.role == "uncertainty" and s.kind.name == kind), None)
+
+    def _uncertainty(self, u_spec, raw, value_si, spec) -> np.ndarray:
+        if u_spec is None or u_spec.unit is None:
+            return np.full(len(self.rows), np.nan)
+        u_raw = raw[u_spec.index]
+        if u_spec.relative:
+            u_si = u_raw / 100.0 * np.abs(value_si)
+        else:
+            u_si = units.to_si(u_raw, u_spec.unit, spec.kind.si_unit, difference=True)
+        self._collect(validate.check_uncertainty(u_spec, u_raw, u_si, value_si, self.rows,
+                                                 self.file, spec.header))
+        return u_si
+
+    def _unused_uncertainty(self, spec, raw, si) -> None:
+        values = raw[spec.index]
+        self.problems += [InputError(f"a standard uncertainty must not be negative, found {v:g}",
+                                     file=self.file, row=int(r), column=spec.header)
+                          for v, r in zip(values, self.rows) if np.isfinite(v) and v < 0]
+        self.warnings.append(f"{self.file}: column '{spec.header}' was read but is not used: fitkin "
+                             f"treats {spec.kind.label} values as exact")
+
+    def _add_series(self, spec, kelvin, value_si, u_si, u_spec, pressure, sources) -> None:
+        keep = np.isfinite(value_si) & np.isfinite(kelvin)
+        if not keep.any():
+            self.warnings.append(f"{self.file}: column '{spec.header}' has no values")
+            return
+        kind_text = "none" if u_spec is None else ("relative" if u_spec.relative else "absolute")
+        self.series.append(PropertySeries(
+            kind=spec.kind.name,
+            temperature=kelvin[keep],
+            value=value_si[keep],
+            uncertainty=u_si[keep],
+            pressure=pressure[keep],
+            source=np.asarray(list(sources[keep]), dtype=object),
+            rows=self.rows[keep],
+            file=self.file,
+            unit=spec.unit_text,
+            uncertainty_kind=kind_text,
+        ))
+
+
+def _label(cell) -> str:
+    if isinstance(cell, float) and cell.is_integer():
+        return str(int(cell))
+    return str(cell).strip()
