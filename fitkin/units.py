@@ -213,6 +213,8 @@ def parse_quantity(text: str, si_unit: str, *, name: str = "value",
     ------
     UnitError : no number, no unit (and no default), unreadable unit, wrong dimension.
     """
+    if re.match(r"^\s*[+\-−]?\d+,\d", str(text)):
+        raise UnitError(f"{name}: '{text}' has a decimal comma", hint="write a decimal point, e.g. '1.5 bar'")
     match = _NUMBER.match(str(text))
     if not match:
         raise UnitError(f"{name}: expected a number followed by a unit, found '{text}'",

@@ -145,6 +145,7 @@ def test_parse_quantity_uses_default_unit_only_for_bare_numbers():
     ("1.5 m", "convertible to Pa"),
     ("bar", "expected a number"),
     ("1.5 flurbs", "cannot read the unit"),
+    ("1,5 bar", "decimal comma"),
 ])
 def test_parse_quantity_errors_name_the_option(text, fragment):
     with pytest.raises(UnitError) as info:
