@@ -30,8 +30,11 @@ __all__ = ["autocorrelation_function", "integrated_time", "split_rhat", "effecti
 LENGTH_IN_TAU = 50
 #: τ is stable when successive estimates differ by less than this fraction.
 TAU_STABILITY = 0.05
-#: Vehtari et al. (2021) recommend R̂ < 1.01.
-RHAT_LIMIT = 1.01
+#: Limit of the split-R̂. Vehtari et al. (2021) recommend 1.01 for independent chains; the
+#: walkers of one ensemble, split in halves of n steps, give R̂ − 1 ≈ τ/(2n) even when perfectly
+#: mixed (the between-chain term of Gelman & Rubin 1992), i.e. about 0.02 for a chain 50 τ long,
+#: so fitkin uses 1.03 together with the 50 τ rule; R̂ then flags walkers that do not mix.
+RHAT_LIMIT = 1.03
 #: Acceptance fractions outside this range signal a poor ensemble (Foreman-Mackey et al. 2013, §4).
 ACCEPTANCE_RANGE = (0.15, 0.8)
 
