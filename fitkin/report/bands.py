@@ -1,0 +1,171 @@
+"""Model curves and their uncertainty bands for the report, from a parameter-file record.
+
+Two sources of parameter uncertainty are supported:
+
+* the least-squares covariance (bands from :meth:`fitkin.fitted.FittedGas.predict`, the same
+  numbers ``fitkin predict`` gives), and
+* posterior samples, when the record carries a ``posterior`` section (see
+  :func:`posterior_samples` for what is read), in which case the bands are percentiles of the
+  model over a seeded subset of the samples.
+
+All temperatures in K, property values in SI.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass
+from pathlib import Path
+
+import numpy as np
+
+from ..errors import FitkinError, OutOfRangeError
+from ..fitted import FittedGas, potential_from_record
+from ..inference.model import ANGSTROM
+from ..theory.transport import TransportModel
+
+__all__ = ["Curve", "RecordModel", "posterior_samples", "POSTERIOR_BAND_DRAWS", "REPORT_SEED"]
+
+#: Number of posterior samples pushed through the model for a band.
+POSTERIOR_BAND_DRAWS = 300
+#: Seed of every random choice the report makes (thinning of samples for bands and plots).
+REPORT_SEED = 20261201
+
+
+@dataclass(frozen=True)
+class Curve:
+    """A model curve with its central band: arrays of equal length, SI units.
+
+    ``source`` says where the band comes from ("covariance", "posterior" or "none").
+    """
+
+    kind: str
+    temperature: np.ndarray
+    median: np.ndarray
+    lower: np.ndarray
+    upper: np.ndarray
+    probability: float
+    source: str
+
+
+def _posterior_entry(record: dict) -> dict | None:
+    post = record.get("posterior")
+    return post if isinstance(post, dict) and post else None
+
+
+def posterior_samples(record: dict, record_path=None) -> dict[str, np.ndarray] | None:
+    """Posterior samples of the record as {parameter name: (n,) array}, or None.
+
+    Read, in this order: ``posterior["samples"]`` given inline as {name: list}; or a NumPy
+    ``.npz`` file named by ``posterior["samples_file"]`` (or ``posterior["samples"]`` as a
+    string), relative to the parameter file's folder, holding either one array per
+    parameter name or a 2-D array ``samples`` (n × p) with ``names``. Units are those of the
+    parameter table (σ in Å, ε/k in K). A missing or unreadable file gives None (the report
+    then says so and falls back to the covariance).
+    """
+    post = _posterior_entry(record)
+    if post is None:
+        return None
+    inline = post.get("samples")
+    if isinstance(inline, dict):
+        out = {k: np.asarray(v, dtype=float).ravel() for k, v in inline.items()}
+        return out if out else None
+    ref = post.get("samples_file") or (inline if isinstance(inline, str) else None)
+    if not ref:
+        return None
+    path = Path(ref)
+    if not path.is_absolute() and record_path is not None:
+        path = Path(record_path).parent / path
+    if not path.is_file():
+        return None
+    try:
+        with np.load(path, allow_pickle=False) as npz:
+            if "samples" in npz.files and "names" in npz.files:
+                arr = np.asarray(npz["samples"], dtype=float)
+                arr = arr.reshape(-1, arr.shape[-1])
+                return {str(n): arr[:, i] for i, n in enumerate(npz["names"])}
+            return {k: np.asarray(npz[k], dtype=float).ravel() for k in npz.files
+                    if k in record.get("parameters", {})}
+    except (OSError, ValueError):
+        return None
+
+
+class RecordModel:
+    """The transport model of a record, evaluated at any parameter values.
+
+    Parameters are in the record's units (σ in Å, ε/k in K, shape parameters plain).
+    """
+
+    def __init__(self, record: dict, record_path=None):
+        self.record = record
+        self.fitted = FittedGas(record, path=None if record_path is None else str(record_path))
+        theory = record.get("theory", {})
+        self.potential = potential_from_record(record["potential"])
+        self.order = int(theory.get("sonine_order") or 1)
+        self.collision = theory.get("collision_integrals") or "computed"
+        self.free_shape = list(record["potential"].get("free_shape") or [])
+        self.base = TransportModel(self.potential, order=self.order, collision=self.collision)
+        self.molar_mass = self.fitted.gas.molar_mass
+        self.samples = posterior_samples(record, record_path)
+
+    @property
+    def theta(self) -> dict:
+        return {k: v["value"] for k, v in self.record["parameters"].items()}
+
+    def transport(self, theta: dict | None = None) -> TransportModel:
+        """The TransportModel at shape parameters of ``theta`` (default the fitted ones)."""
+        theta = self.theta if theta is None else theta
+        shape = {k: theta[k] for k in self.free_shape if k in theta}
+        if not shape:
+            return self.base
+        from ..inference.model import with_shape
+        return TransportModel(with_shape(self.potential, **shape), order=self.order, collision=self.collision)
+
+    def t_star_range(self) -> tuple[float, float]:
+        """Reduced-temperature range over which the collision integrals are available."""
+        return tuple(float(x) for x in self.base.t_star_range)
+
+    def temperature_limits(self) -> tuple[float, float]:
+        """Temperatures (K) the model can be evaluated at, from the T* range and ε/k."""
+        lo, hi = self.t_star_range()
+        eps = self.theta["epsilon_over_k"]
+        return lo * eps, hi * eps
+
+    def evaluate(self, kind: str, T, theta: dict | None = None) -> np.ndarray:
+        """Property ``kind`` ('viscosity' or 'conductivity') at T for parameters ``theta``."""
+        theta = self.theta if theta is None else {**self.theta, **theta}
+        return self.transport(theta).property(kind, np.asarray(T, dtype=float), self.molar_mass,
+                                              theta["sigma"] * ANGSTROM, theta["epsilon_over_k"])
+
+    def omega22(self, T) -> np.ndarray:
+        """Ω(2,2)* at the fitted ε/k and temperatures T."""
+        return np.asarray(self.transport().omega(2, 2, np.asarray(T, dtype=float) / self.theta["epsilon_over_k"]))
+
+    def curve(self, kind: str, T, probability: float = 0.95) -> Curve:
+        """Model ``kind`` at T with a central ``probability`` band (posterior if sampled)."""
+        T = np.asarray(T, dtype=float)
+        if self.samples and {"sigma", "epsilon_over_k"} <= set(self.samples):
+            rows = self._sample_rows()
+            draws = []
+            for theta in rows:
+                try:
+                    draws.append(self.evaluate(kind, T, theta))
+                except OutOfRangeError:
+                    continue
+            if len(draws) >= 20:
+                q = 0.5 - probability / 2, 0.5, 0.5 + probability / 2
+                lo, med, hi = np.quantile(np.array(draws), q, axis=0)
+                return Curve(kind, T, med, lo, hi, probability, "posterior")
+        try:
+            med, lo, hi = self.fitted.predict(kind, T, band=probability)
+            return Curve(kind, T, med, lo, hi, probability, "covariance")
+        except OutOfRangeError:
+            raise
+        except FitkinError:
+            y = self.evaluate(kind, T)
+            return Curve(kind, T, y, y, y, probability, "none")
+
+    def _sample_rows(self) -> list[dict]:
+        names = [n for n in self.samples if n in self.record["parameters"]]
+        n = min(len(self.samples[k]) for k in names)
+        rng = np.random.default_rng(REPORT_SEED)
+        idx = rng.choice(n, size=min(n, POSTERIOR_BAND_DRAWS), replace=False)
+        return [{k: float(self.samples[k][i]) for k in names} for i in idx]

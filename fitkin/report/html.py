@@ -1,0 +1,241 @@
+"""The report page: one self-contained HTML file built from a parameter-file record.
+
+:func:`write_report` computes the curves, the comparison with elementary theory and the
+diagnostics from the record alone (no refit), assembles the sections, writes
+``out_dir/report.html`` atomically and saves every figure as PNG and SVG under
+``out_dir/figures/``. Figures are embedded as base64 PNG, the CSS is inline and nothing is
+loaded from the network, so the file can be mailed, archived and printed as it is.
+"""
+from __future__ import annotations
+
+import datetime as _dt
+from html import escape
+from pathlib import Path
+
+from .. import __version__
+from ..errors import OutputExistsError
+from ..io.atomic import check_can_write, write_bytes_atomic, write_text_atomic
+from ..summary import format_estimate
+from . import figures as fg
+from . import style as st
+from .bands import RecordModel
+from .checks import report_findings
+from .comparison import elementary_comparison
+from .narrative import elementary_section, provenance_section
+from .sections import (OPTIONAL_SECTIONS, LABELS, UNIT_TEXT, ReportContext, Section, chi2_probability,
+                       figure_html, parameters_section, statistics_section)
+
+__all__ = ["write_report", "build_report", "render_page", "REPORT_NAME", "FIGURE_FOLDER", "CAUTION"]
+
+REPORT_NAME = "report.html"
+FIGURE_FOLDER = "figures"
+CAUTION = ("Parameters and predictions in this report come from a model fitted to the data listed under "
+           "Provenance. Predictions, above all those outside the measured temperature range or for properties "
+           "that were not measured, must be verified independently before they are used in safety-relevant "
+           "design. Local codes, standards and licensed engineering practice govern such use; this report does "
+           "not replace them.")
+
+
+def _prepare(record: dict, record_path=None, pressure: float = 101325.0) -> ReportContext:
+    model = RecordModel(record, record_path)
+    ctx = ReportContext(record=record, record_path=record_path, pressure=pressure, model=model)
+    T = fg.property_grid(model)
+    ctx.curves = {k: model.curve(k, T) for k in st.DISPLAY}
+    ctx.comparison = elementary_comparison(record, pressure=pressure, model=model)
+    ctx.findings = report_findings(record, model)
+    return ctx
+
+
+def _figures(ctx: ReportContext) -> None:
+    rec, model = ctx.record, ctx.model
+    summary = rec.get("data", {}).get("summary", {})
+    for kind, curve in ctx.curves.items():
+        sym, unit, _ = st.DISPLAY[kind]
+        what = "measured points by source with ±u bars where stated" if kind in summary else "no measurements"
+        band = ("posterior samples" if curve.source == "posterior" else "the least-squares covariance"
+                if curve.source == "covariance" else "nothing (no covariance)")
+        ctx.add_figure(f"fit_{kind}", fg.fit_figure(model, kind, curve),
+                       f"{kind.capitalize()} {sym} [{unit}] against temperature: {what}; the Chapman–Enskog fit "
+                       f"with its {100 * curve.probability:.0f} % band from {band}; dashed and tinted where "
+                       f"extrapolated. Below: the band's half-widths relative to the fit.")
+    if rec.get("residuals"):
+        ctx.add_figure("deviations", fg.deviation_figure(rec, ctx.curves),
+                       "Deviations 100 (measured − fit)/fit against temperature, one marker per source, bars "
+                       "±u(measured) where stated; shaded: the fit's 95 % band.")
+    sampled = bool(model.samples)
+    ctx.add_figure("sigma_epsilon", fg.joint_figure(model),
+                   "Joint distribution of σ and ε/k: " + ("posterior samples with their 68 % and 95 % regions; "
+                                                           "dotted: the least-squares 68 % region."
+                                                           if sampled else
+                                                           "joint 68.3 % and 95.4 % regions of the least-squares "
+                                                           "covariance (Gaussian approximation); cross: ±u of each."))
+    if ctx.comparison is not None and ctx.comparison.properties:
+        ctx.add_figure("elementary", fg.elementary_figure(ctx.comparison),
+                       "(a) Measured values and the Chapman–Enskog fit divided by the elementary estimates "
+                       "⅓ρv̄λ and ⅓C_v v̄λ (solid: with d(T); dashed: with one fixed d); dotted: the rigid-sphere "
+                       "ratios. (b) Eucken factor of the measured conductivity with the fitted viscosity.")
+
+
+def _summary(ctx: ReportContext) -> Section:
+    r = ctx.record
+    p = r["parameters"]
+    s = r.get("statistics") or {}
+    corr = r.get("correlation") or {}
+    names = corr.get("names") or []
+    rho = None
+    if "sigma" in names and "epsilon_over_k" in names:
+        rho = (corr["matrix"] or [[None]])[names.index("sigma")][names.index("epsilon_over_k")]
+    cards = []
+    for name in ("sigma", "epsilon_over_k"):
+        u = p[name].get("stderr")
+        cards.append((LABELS[name], f"{format_estimate(p[name]['value'], u if u is not None else float('nan'))} "
+                                    f"{UNIT_TEXT.get(p[name].get('unit'), '')}",
+                      "standard uncertainty u" + (f"; correlation r = {rho:+.3f}" if rho is not None and
+                                                  name == "epsilon_over_k" else "")))
+    for name, q in p.items():
+        if name not in ("sigma", "epsilon_over_k") and q.get("varied"):
+            cards.append((LABELS.get(name, name), format_estimate(q["value"], q.get("stderr") or float("nan")),
+                          "shape parameter"))
+    prob = chi2_probability(s)
+    red = s.get("reduced_chi2")
+    cards.append(("reduced χ²", f"{red:.3g}" if red is not None else "—",
+                  f"{s.get('dof', '—')} degrees of freedom" + (f"; P = {prob:.2g}" if prob is not None else "")))
+    cards.append(("rms deviation", f"{s.get('rms_deviation_percent', float('nan')):.3g} %",
+                  f"largest {s.get('max_abs_deviation_percent', float('nan')):.3g} %; {s.get('points', '?')} points"))
+    n_warn = sum(f.level == "warning" for f in ctx.findings)
+    cards.append(("warnings", str(n_warn), "see Diagnostics" if n_warn else "none raised"))
+    lo, hi = r["data"]["temperature_range_K"]
+    cards.append(("measured range", f"{lo:.0f}–{hi:.0f} K", ", ".join(
+        f"{k} {v['points']}" for k, v in (r["data"].get("summary") or {}).items())))
+    html = '<div class="cards">' + "".join(
+        f'<div class="card"><div class="label">{escape(a)}</div><div class="value">{escape(b)}</div>'
+        f'<div class="sub">{escape(c)}</div></div>' for a, b, c in cards) + "</div>"
+    html += f'<p class="verdict">{_verdict(s, prob, n_warn)}</p>'
+    return Section("summary", "Summary", html)
+
+
+def _verdict(s: dict, prob, n_warn: int) -> str:
+    if not s.get("optimiser_success", True):
+        return '<b class="warn">The optimiser did not converge:</b> do not use these parameters.'
+    if prob is not None:
+        if prob < 1e-3:
+            text = (f'<b class="warn">The fit is not consistent with the stated uncertainties</b> '
+                    f"(P(χ²) = {prob:.1e}): the uncertainties are too small or the potential shape cannot "
+                    "follow the data.")
+        elif s.get("reduced_chi2", 1) < 0.2:
+            text = ('<b class="warn">The deviations are much smaller than the stated uncertainties</b>: '
+                    "the uncertainties look overstated, so the parameter uncertainties are too.")
+        else:
+            text = f'<b class="ok">The fit is consistent with the stated uncertainties</b> (P(χ²) = {prob:.2g}).'
+    else:
+        text = ("No uncertainties were stated, so χ² cannot test the fit; the parameter uncertainties come from "
+                "the scatter of the data about the fit.")
+    if n_warn:
+        text += f" {n_warn} warning{'s' if n_warn > 1 else ''} below deserve{'' if n_warn > 1 else 's'} a look."
+    return text
+
+
+def _figure_section(ctx, sid, title, names, lead="") -> Section | None:
+    body = "".join(figure_html(ctx, n) for n in names)
+    return Section(sid, title, (f'<p class="lead">{escape(lead)}</p>' if lead else "") + body) if body else None
+
+
+def _diagnostics(ctx: ReportContext) -> Section:
+    warns = [f for f in ctx.findings if f.level == "warning"]
+    notes = [f for f in ctx.findings if f.level != "warning"]
+    html = ""
+    if warns:
+        html += '<ul class="warnings">' + "".join(
+            f"<li>{escape(f.text)}<span class='small'> — {'from the fit' if f.origin == 'fit' else 'found by the report'}"
+            f"</span></li>" for f in warns) + "</ul>"
+    else:
+        html += "<p>No warnings were raised by the fit or by the report's own checks.</p>"
+    if notes:
+        html += "<h3>Notes</h3><ul class=\"notes\">" + "".join(f"<li>{escape(f.text)}</li>" for f in notes) + "</ul>"
+    return Section("diagnostics", "Diagnostics and warnings", html)
+
+
+def build_report(record: dict, *, record_path=None, pressure: float = 101325.0,
+                 extra_sections=()) -> tuple[str, ReportContext]:
+    """The page's HTML text and the context (curves, comparison, figures) it was made from.
+
+    ``extra_sections`` are callables ``builder(ctx) -> Section | None`` placed before the
+    diagnostics; a builder may register figures with ``ctx.add_figure``.
+    """
+    ctx = _prepare(record, record_path, pressure)
+    _figures(ctx)
+    sections = [_summary(ctx),
+                _figure_section(ctx, "data-and-fit", "Data and fitted curves",
+                                [f"fit_{k}" for k in ctx.curves],
+                                "Each property with the fitted Chapman–Enskog curve and its uncertainty band."),
+                _figure_section(ctx, "deviations", "Deviations from the fit", ["deviations"]),
+                parameters_section(ctx), statistics_section(ctx),
+                _figure_section(ctx, "joint", "σ and ε/k together", ["sigma_epsilon"],
+                                "σ and ε/k are usually strongly correlated: the data fix a curve in this plane "
+                                "better than either value alone."),
+                elementary_section(ctx)]
+    for builder in tuple(OPTIONAL_SECTIONS) + tuple(extra_sections):
+        sections.append(builder(ctx))
+    sections += [_diagnostics(ctx), provenance_section(ctx)]
+    return render_page(ctx, [s for s in sections if s is not None]), ctx
+
+
+def render_page(ctx: ReportContext, sections: list[Section]) -> str:
+    """Assemble the sections into one HTML document with inline CSS and a print layout."""
+    r = ctx.record
+    gas = (r.get("gas") or {}).get("name", "gas")
+    pot = (r.get("potential") or {}).get("name", "?")
+    made = _dt.datetime.now(_dt.timezone.utc).strftime("%Y-%m-%d %H:%M UTC")
+    nav = "".join(f'<a href="#{escape(s.id)}">{escape(s.title)}</a>' for s in sections[1:]) + \
+        '<a href="#caution">Caution</a>'
+    body = []
+    for s in sections:
+        cls = ' class="summary"' if s.id == "summary" else ""
+        body.append(f'<section id="{escape(s.id)}"{cls}><h2>{escape(s.title)}</h2>{s.body}</section>')
+    caution = f'<section id="caution" class="caution"><h2>Caution</h2><p>{escape(CAUTION)}</p></section>'
+    synthetic = ('<p><b>These data are synthetic</b> (made by fitkin\'s demo from stated parameters).</p>'
+                 if r.get("demo_truth") else "")
+    return (
+        "<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\">"
+        "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">"
+        f"<meta name=\"generator\" content=\"fitkin {escape(__version__)}\">"
+        f"<title>fitkin fit report: {escape(gas)}</title><style>{st.PAGE_CSS}</style></head><body><main>"
+        f'<header class="top"><h1>Fit report: {escape(gas)}</h1>'
+        f"<p>Potential {escape(str(pot))}, Chapman–Enskog order {escape(str((r.get('theory') or {}).get('sonine_order')))}"
+        f" · fit made {escape(str((r.get('provenance') or {}).get('created_utc', '?')))} · report made {made} · "
+        f"fitkin {escape(__version__)}</p>{synthetic}</header>"
+        f'<nav class="toc">{nav}</nav>' + "".join(body) + caution +
+        f"<footer>Generated by fitkin {escape(__version__)} from the parameter file alone; "
+        "<code>fitkin report PARAMETERS.json</code> regenerates it without refitting.</footer>"
+        "</main></body></html>\n")
+
+
+def write_report(record: dict, out_dir, *, force: bool = False, record_path=None, pressure: float = 101325.0,
+                 extra_sections=()) -> Path:
+    """Write ``out_dir/report.html`` and ``out_dir/figures/*.png|svg`` from a parameter-file record.
+
+    Parameters
+    ----------
+    record : the parameter-file record (as written by ``fitkin fit``).
+    out_dir : folder for the report; created if needed.
+    force : replace an existing report and figures; otherwise :class:`OutputExistsError`.
+    record_path : where the record was read from (shown in the report; posterior sample files
+        are looked up relative to it).
+    pressure : Pa, for the mean free paths of the elementary-theory comparison.
+    extra_sections : further section builders, see :func:`build_report`.
+
+    Returns the path of ``report.html``.
+    """
+    out = Path(out_dir)
+    target = check_can_write(out / REPORT_NAME, force)
+    html, ctx = build_report(record, record_path=record_path, pressure=pressure, extra_sections=extra_sections)
+    folder = out / FIGURE_FOLDER
+    planned = [folder / f"{name}.{ext}" for name in ctx.figures for ext in ("png", "svg")]
+    clash = [p for p in planned if p.exists()]
+    if clash and not force:
+        raise OutputExistsError(f"{clash[0]} already exists; choose another output folder or pass --force to "
+                                "replace the report")
+    for name, (fig, _) in ctx.figures.items():
+        write_bytes_atomic(folder / f"{name}.png", ctx.png_of(name), force=force)
+        write_bytes_atomic(folder / f"{name}.svg", fg.figure_bytes(fig, "svg"), force=force)
+    return write_text_atomic(target, html, force=force)

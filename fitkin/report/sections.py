@@ -1,0 +1,206 @@
+"""The report's sections as HTML fragments, built with the standard library only.
+
+Each builder takes a :class:`ReportContext` and returns a :class:`Section` (or None when it
+has nothing to show). Other parts of fitkin add sections by passing builders to
+:func:`fitkin.report.write_report` (``extra_sections``); :data:`OPTIONAL_SECTIONS` are those
+that appear by themselves when the record carries their entry.
+"""
+from __future__ import annotations
+
+import base64
+from dataclasses import dataclass, field
+from html import escape
+
+import numpy as np
+from scipy import stats
+
+from ..summary import format_estimate
+from . import style as st
+
+__all__ = ["Section", "ReportContext", "table", "figure_html", "parameters_section", "statistics_section",
+           "OPTIONAL_SECTIONS", "LABELS", "UNIT_TEXT"]
+
+LABELS = {"sigma": "σ", "epsilon_over_k": "ε/k", "n": "n (repulsive exponent)", "m": "m (attractive exponent)",
+          "alpha": "α (steepness)"}
+UNIT_TEXT = {"angstrom": "Å", "K": "K", "1": ""}
+
+
+@dataclass(frozen=True)
+class Section:
+    """One section of the page: anchor id, heading and inner HTML (already escaped)."""
+
+    id: str
+    title: str
+    body: str
+
+
+@dataclass
+class ReportContext:
+    """Everything the section builders share: the record and what was computed from it.
+
+    ``figures`` maps a figure name to (matplotlib Figure, caption); every figure a builder
+    adds there is embedded in the page and saved as PNG and SVG. ``png`` caches renderings.
+    """
+
+    record: dict
+    record_path: object = None
+    pressure: float = 101325.0
+    model: object = None
+    curves: dict = field(default_factory=dict)
+    comparison: object = None
+    findings: list = field(default_factory=list)
+    figures: dict = field(default_factory=dict)
+    png: dict = field(default_factory=dict)
+
+    def add_figure(self, name: str, fig, caption: str) -> None:
+        """Register a figure under ``name`` (a file-name stem)."""
+        self.figures[name] = (fig, caption)
+
+    def png_of(self, name: str) -> bytes:
+        from .figures import figure_bytes
+        if name not in self.png:
+            self.png[name] = figure_bytes(self.figures[name][0], "png")
+        return self.png[name]
+
+
+def table(header, rows, *, text_columns=(0,), cls="") -> str:
+    """An HTML table; cells are escaped unless given as ``("html", markup)``."""
+    def cell(tag, i, v):
+        align = ' class="text"' if i in text_columns else ""
+        content = v[1] if isinstance(v, tuple) and v and v[0] == "html" else escape(str(v))
+        return f"<{tag}{align}>{content}</{tag}>"
+    head = "".join(cell("th", i, h) for i, h in enumerate(header))
+    body = "".join("<tr>" + "".join(cell("td", i, v) for i, v in enumerate(r)) + "</tr>" for r in rows)
+    klass = f' class="{cls}"' if cls else ""
+    return f"<table{klass}><thead><tr>{head}</tr></thead><tbody>{body}</tbody></table>"
+
+
+def figure_html(ctx: ReportContext, name: str) -> str:
+    """The embedded figure ``name`` (base64 PNG) with its caption; '' if it was not made."""
+    if name not in ctx.figures:
+        return ""
+    caption = ctx.figures[name][1]
+    data = base64.b64encode(ctx.png_of(name)).decode("ascii")
+    return (f'<figure id="fig-{escape(name)}"><img alt="{escape(caption)}" src="data:image/png;base64,{data}">'
+            f"<figcaption>{escape(caption)}</figcaption></figure>")
+
+
+def _fmt(x, digits=4) -> str:
+    return "—" if x is None or not np.isfinite(x) else f"{x:.{digits}g}"
+
+
+def chi2_probability(statistics: dict) -> float | None:
+    """P(χ² ≥ observed) for a weighted fit, else None."""
+    chi2, dof = statistics.get("chi2"), statistics.get("dof")
+    if statistics.get("weighting") != "stated uncertainties" or not chi2 or not dof or dof <= 0:
+        return None
+    return float(stats.chi2.sf(chi2, dof))
+
+
+def _interval(record, name):
+    post = record.get("posterior") or {}
+    pct = (post.get("percentiles") or {}).get(name) if isinstance(post, dict) else None
+    if isinstance(pct, dict):
+        lo, hi = pct.get("2.5"), pct.get("97.5")
+        if isinstance(lo, (int, float)) and isinstance(hi, (int, float)):
+            return f"{lo:.5g} – {hi:.5g}", "posterior 2.5–97.5 %"
+    p = record["parameters"][name]
+    u = p.get("stderr")
+    if u is None or not np.isfinite(u) or not p.get("varied", True):
+        return "—", ""
+    return f"{p['value'] - 1.96 * u:.5g} – {p['value'] + 1.96 * u:.5g}", "value ± 1.96 u"
+
+
+def parameters_section(ctx: ReportContext) -> Section:
+    """Parameter table with standard uncertainties, intervals and the correlation matrix."""
+    record = ctx.record
+    rows, basis = [], set()
+    for name, p in record["parameters"].items():
+        u = p.get("stderr")
+        rel = f"{100 * u / abs(p['value']):.2g} %" if u and np.isfinite(u) and p["value"] else "—"
+        interval, how = _interval(record, name)
+        basis.add(how)
+        rows.append([LABELS.get(name, name), format_estimate(p["value"], u if u is not None else float("nan")),
+                     UNIT_TEXT.get(p.get("unit"), p.get("unit", "")), rel, interval,
+                     "varied" if p.get("varied", True) else "fixed"])
+    html = table(["parameter", "estimate ± standard uncertainty u", "unit", "relative u", "95 % interval",
+                  "status"], rows, text_columns=(0, 2, 5))
+    basis.discard("")
+    html += f'<p class="small">Intervals: {escape(", ".join(sorted(basis)) or "none")}. ' \
+            "Standard uncertainties in the GUM sense, from the least-squares covariance" \
+            + (" (rescaled by the scatter, since no uncertainties were stated)"
+               if record.get("statistics", {}).get("weighting") != "stated uncertainties" else "") + ".</p>"
+    corr = record.get("correlation") or {}
+    names, matrix = corr.get("names") or [], corr.get("matrix") or []
+    if names and matrix:
+        crow = [[LABELS.get(n, n).split(" (")[0]] + [_fmt(v, 3) if v is not None else "—" for v in r]
+                for n, r in zip(names, matrix)]
+        html += "<h3>Correlation</h3>" + table([""] + [LABELS.get(n, n).split(" (")[0] for n in names], crow)
+        html += ('<p class="small">A correlation near ±1 means the data fix a combination of the parameters '
+                 "better than each alone: quote them together, never mix σ from one set with ε/k from another.</p>")
+    return Section("parameters", "Parameters", html)
+
+
+def statistics_section(ctx: ReportContext) -> Section:
+    """χ², deviations overall, per property and per source, and the optimiser's account."""
+    from .checks import source_statistics
+    s = ctx.record.get("statistics") or {}
+    prob = chi2_probability(s)
+    rows = [["χ² / degrees of freedom", f"{_fmt(s.get('chi2'))} / {s.get('dof', '—')}"],
+            ["reduced χ²", _fmt(s.get("reduced_chi2"), 3)],
+            ["P(χ² ≥ observed)", _fmt(prob, 2) if prob is not None else "not applicable (no stated uncertainties)"],
+            ["weighting", s.get("weighting", "—")],
+            ["points", s.get("points", "—")],
+            ["rms deviation", f"{_fmt(s.get('rms_deviation_percent'), 3)} %"],
+            ["largest |deviation|", f"{_fmt(s.get('max_abs_deviation_percent'), 3)} %"],
+            ["optimiser", f"{'converged' if s.get('optimiser_success') else 'NOT converged'}: "
+                          f"{s.get('optimiser_message', '')} ({s.get('evaluations', '?')} evaluations)"]]
+    html = table(["quantity", "value"], rows, text_columns=(0, 1))
+    per = source_statistics(ctx.record)
+    if per:
+        html += "<h3>Deviations per source</h3>" + table(
+            ["property", "source", "points", "mean deviation", "rms deviation"],
+            [[p["property"], p["source"], p["points"], f"{p['mean_percent']:+.3f} %", f"{p['rms_percent']:.3f} %"]
+             for p in per], text_columns=(0, 1))
+        html += ('<p class="small">Deviation = 100 (measured − fit)/fit. A mean far from zero for one source '
+                 "while others scatter around zero points to a calibration offset of that source.</p>")
+    return Section("statistics", "Fit statistics", html)
+
+
+def eucken_section(ctx: ReportContext) -> Section | None:
+    """Hook for the polyatomic analysis: shown when the record has an ``eucken`` entry
+    {"T_K": [...], "factor": [...], "label": str, "note": str}; the figure has the 5/2 line."""
+    entry = ctx.record.get("eucken")
+    if not isinstance(entry, dict) or not entry.get("T_K") or not entry.get("factor"):
+        return None
+    from matplotlib.figure import Figure
+    from .figures import eucken_axes
+    fig = Figure(figsize=(st.FIGURE_WIDTH, 3.4), layout="constrained")
+    eucken_axes(fig.subplots(), np.asarray(entry["T_K"], float), np.asarray(entry["factor"], float),
+                label=str(entry.get("label", "Eucken factor")), monatomic=False)
+    ctx.add_figure("eucken", fig, "Eucken factor f = kM/(μ c_v) against temperature, with the translational "
+                                  "(monatomic) value 5/2 and the elementary value 1.")
+    note = f"<p>{escape(str(entry['note']))}</p>" if entry.get("note") else ""
+    return Section("eucken", "Internal energy and the Eucken factor", note + figure_html(ctx, "eucken"))
+
+
+def potential_comparison_section(ctx: ReportContext) -> Section | None:
+    """Hook for fits of several potentials: shown when the record has ``potential_comparison``,
+    a list of {"potential", "parameters": {name: value}, "reduced_chi2", "rms_deviation_percent",
+    "note"}."""
+    rows = ctx.record.get("potential_comparison")
+    if not isinstance(rows, list) or not rows:
+        return None
+    body = []
+    for r in rows:
+        params = ", ".join(f"{LABELS.get(k, k).split(' (')[0]} = {v:.5g}" for k, v in (r.get("parameters") or {}).items()
+                           if isinstance(v, (int, float)))
+        body.append([r.get("potential", "?"), params, _fmt(r.get("reduced_chi2"), 3),
+                     f"{_fmt(r.get('rms_deviation_percent'), 3)} %", r.get("note", "")])
+    return Section("potentials", "Potentials compared",
+                   table(["potential", "parameters", "reduced χ²", "rms deviation", "note"], body,
+                         text_columns=(0, 1, 4)))
+
+
+#: Sections that appear by themselves when the record carries their entry.
+OPTIONAL_SECTIONS = (eucken_section, potential_comparison_section)
