@@ -260,7 +260,7 @@ def sample_posterior(data: FitData, gas: Gas, potential=None, *, free_shape=(), 
     model = ForwardModel(gas=gas, potential=potential, free_shape=tuple(free_shape), order=order, collision=collision)
     lik = LogLikelihood(model, data, form=likelihood, nu=nu, extra_scatter=extra_scatter,
                         calibrate_sources=calibrate_sources)
-    warnings = list(start.warnings)
+    warnings = [f"least-squares start: {w}" for w in start.warnings]
     if lik.forced_scatter:
         warnings.append("not every point states u(value): a relative scatter is fitted in its place")
     warnings += _check_sources(lik, start, robust=lik.extra_scatter or likelihood == "student_t")
