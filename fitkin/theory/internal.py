@@ -1,0 +1,185 @@
+"""Internal-energy transport: the hook that turns a translational Chapman–Enskog model into the
+thermal conductivity of a polyatomic gas.
+
+The transport model computes, for (σ, ε/k) and the gas's molar mass, the viscosity μ (Pa s),
+the density-times-self-diffusion ρD (kg/(m s)) and the translational ("monatomic")
+conductivity k_tr (W/(m K)). :class:`InternalEnergyTransport` adds the internal energy:
+
+>>> from fitkin.thermo import RigidRotorHarmonicOscillator
+>>> n2 = RigidRotorHarmonicOscillator("linear", (2358.6,), atoms=2)
+>>> model = InternalEnergyTransport("mason_monchick")
+>>> model.parameter_names, model.defaults["z_rot_inf"]
+(('z_rot_inf',), 20.0)
+>>> k = model.conductivity(300.0, 1.788e-5, 1.33 * 1.788e-5, 0.028014, n2, 98.94, {"z_rot_inf": 20.0})
+>>> round(float(k) * 1e3, 1)
+26.2
+
+Models (:data:`INTERNAL_MODELS`; formulas and sources in :mod:`fitkin.theory.polyatomic`):
+
+* ``"monatomic"`` — no internal energy: k = k_tr.
+* ``"eucken"`` — Eucken (1913), f_int = 1.
+* ``"modified_eucken"`` — f_int = 1.32 (Hirschfelder 1957), parameter ``f_int``.
+* ``"eucken_diffusion"`` — f_int = ξ ρD/μ (internal energy diffuses like mass).
+* ``"mason_monchick"`` — Mason & Monchick (1962): diffusion ξ ρD/μ plus rotational relaxation
+  with Z_rot(T) = ``z_rot_inf`` / F(kT/ε) (Parker 1959, Brau & Jonkman 1970); vibrational
+  relaxation neglected.
+
+ξ = ``internal_diffusion_factor`` (default 1) scales the self-diffusion of internal energy
+(below 1 for polar gases, where resonant exchange of rotational energy slows it; Mason &
+Monchick 1962). By default only ``z_rot_inf`` is fitted; pass ``free=`` to fit others.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from ..errors import FitkinError, GasError
+from . import polyatomic as pa
+from .polyatomic import eucken_factor
+
+__all__ = ["InternalEnergyTransport", "INTERNAL_MODELS", "eucken_factor"]
+
+#: name → {parameter: (default, (lower, upper))}.
+_PARAMETERS = {
+    "monatomic": {},
+    "eucken": {},
+    "modified_eucken": {"f_int": (pa.MODIFIED_EUCKEN_FACTOR, (0.5, 2.5))},
+    "eucken_diffusion": {"internal_diffusion_factor": (1.0, (0.3, 2.0))},
+    "mason_monchick": {"z_rot_inf": (20.0, (0.5, 1000.0)),
+                       "internal_diffusion_factor": (1.0, (0.3, 2.0))},
+}
+
+#: name → parameters fitted unless ``free`` says otherwise.
+_DEFAULT_FREE = {"monatomic": (), "eucken": (), "modified_eucken": (), "eucken_diffusion": (),
+                 "mason_monchick": ("z_rot_inf",)}
+
+#: Names of the internal-energy transport models.
+INTERNAL_MODELS = tuple(_PARAMETERS)
+
+_REFERENCES = {
+    "monatomic": "Chapman-Enskog translational conductivity only",
+    "eucken": "Eucken, Phys. Z. 14, 324 (1913)",
+    "modified_eucken": "Hirschfelder, J. Chem. Phys. 26, 282 (1957)",
+    "eucken_diffusion": "Hirschfelder, J. Chem. Phys. 26, 282 (1957); rho*D/mu from the collision integrals",
+    "mason_monchick": "Mason & Monchick, J. Chem. Phys. 36, 1622 (1962); Z_rot(T): Parker, Phys. Fluids 2, "
+                      "449 (1959), Brau & Jonkman, J. Chem. Phys. 52, 477 (1970)",
+}
+
+
+@dataclass(frozen=True)
+class InternalEnergyTransport:
+    """A selectable internal-energy conductivity model with its (fittable) parameters.
+
+    Parameters
+    ----------
+    name : one of :data:`INTERNAL_MODELS`.
+    free : parameters a fit varies (default: ``("z_rot_inf",)`` for Mason–Monchick, none
+        otherwise); each must be a parameter of the model.
+    fixed : ``((name, value), ...)`` overriding the defaults of parameters not fitted.
+    """
+
+    name: str = "mason_monchick"
+    free: tuple | None = None
+    fixed: tuple = ()
+
+    def __post_init__(self):
+        if self.name not in _PARAMETERS:
+            raise FitkinError(f"unknown internal-energy transport model '{self.name}'; expected one of "
+                              f"{', '.join(INTERNAL_MODELS)}")
+        known = _PARAMETERS[self.name]
+        free = _DEFAULT_FREE[self.name] if self.free is None else tuple(self.free)
+        for p in free:
+            if p not in known:
+                raise FitkinError(f"model '{self.name}' has no parameter '{p}'; it has {', '.join(known) or 'none'}")
+        object.__setattr__(self, "free", free)
+        fixed = tuple((str(k), float(v)) for k, v in (self.fixed.items() if isinstance(self.fixed, dict)
+                                                     else self.fixed))
+        for k, v in fixed:
+            if k not in known:
+                raise FitkinError(f"model '{self.name}' has no parameter '{k}'; it has {', '.join(known) or 'none'}")
+            lo, hi = known[k][1]
+            if not lo <= v <= hi:
+                raise FitkinError(f"{k} = {v:g} is outside the range {lo:g} to {hi:g} of model '{self.name}'")
+        object.__setattr__(self, "fixed", fixed)
+
+    # -- parameters -----------------------------------------------------------------------
+    @property
+    def parameter_names(self) -> tuple:
+        """Names of the parameters a fit varies (may be empty)."""
+        return self.free
+
+    @property
+    def all_parameter_names(self) -> tuple:
+        return tuple(_PARAMETERS[self.name])
+
+    @property
+    def defaults(self) -> dict:
+        """Default (or fixed) value of every parameter of the model."""
+        values = {k: d for k, (d, _) in _PARAMETERS[self.name].items()}
+        values.update(dict(self.fixed))
+        return values
+
+    @property
+    def bounds(self) -> dict:
+        """(lower, upper) of every parameter of the model."""
+        return {k: b for k, (_, b) in _PARAMETERS[self.name].items()}
+
+    @property
+    def needs_diffusion(self) -> bool:
+        """True when :meth:`conductivity` needs ρD."""
+        return self.name in ("eucken_diffusion", "mason_monchick")
+
+    def describe(self) -> dict:
+        return {"model": self.name, "fitted": list(self.free), "values": self.defaults,
+                "reference": _REFERENCES[self.name],
+                "neglected": ("vibrational relaxation (vibrational energy diffuses only)"
+                              if self.name == "mason_monchick" else "")}
+
+    # -- the conductivity -----------------------------------------------------------------
+    def conductivity(self, T, viscosity, rho_D, molar_mass, heat_capacity, epsilon_over_k, params=None,
+                     translational_conductivity=None):
+        """Thermal conductivity k(T) in W/(m K), shape of T.
+
+        Parameters
+        ----------
+        T : array_like (n,), K.
+        viscosity : array_like (n,), the translational Chapman–Enskog μ in Pa s.
+        rho_D : array_like (n,), ρD in kg/(m s) (None allowed unless :attr:`needs_diffusion`).
+        molar_mass : kg/mol.
+        heat_capacity : a :class:`fitkin.thermo.HeatCapacity` (None only for "monatomic").
+        epsilon_over_k : K (for Z_rot(T)).
+        params : {name: value} for the fitted parameters; others take :attr:`defaults`.
+        translational_conductivity : optional array_like (n,), the monatomic k_tr in W/(m K)
+            of the same transport model (keeps its higher-order correction); default
+            (15/4) R μ/M.
+        """
+        values = self.defaults
+        for k, v in (params or {}).items():
+            if k not in values:
+                raise FitkinError(f"model '{self.name}' has no parameter '{k}'")
+            values[k] = float(v)
+        T = np.asarray(T, dtype=float)
+        mu = np.asarray(viscosity, dtype=float)
+        if self.name == "monatomic":
+            return pa._translational_term(mu, molar_mass, translational_conductivity) * np.ones_like(T)
+        if heat_capacity is None:
+            raise GasError(f"the '{self.name}' conductivity needs the gas's ideal-gas heat capacity: add a "
+                           "[heat_capacity] table or [molecule] vibrational data to the gas file")
+        c_int = heat_capacity.internal_cv(T)
+        if self.name == "eucken":
+            return pa.eucken_conductivity(mu, molar_mass, c_int, translational_conductivity)
+        if self.name == "modified_eucken":
+            return pa.modified_eucken_conductivity(mu, molar_mass, c_int, values["f_int"], translational_conductivity)
+        if rho_D is None:
+            raise FitkinError(f"the '{self.name}' conductivity needs ρD from the transport model")
+        x = values["internal_diffusion_factor"] * np.asarray(rho_D, dtype=float) / mu
+        if self.name == "eucken_diffusion":
+            return pa.modified_eucken_conductivity(mu, molar_mass, c_int, x, translational_conductivity)
+        if not heat_capacity.has_rotational_split:
+            raise GasError("the Mason–Monchick conductivity needs the rotational part of the heat capacity: "
+                           "add geometry = \"linear\" or \"nonlinear\" under [molecule] in the gas file")
+        z_rot = pa.rotational_collision_number(T, epsilon_over_k, values["z_rot_inf"])
+        return pa.mason_monchick_conductivity(mu, molar_mass, heat_capacity.rotational_cv(T),
+                                              heat_capacity.vibrational_cv(T), x, z_rot,
+                                              translational_conductivity)
