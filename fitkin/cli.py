@@ -27,6 +27,7 @@ _EPILOG_FIT = """examples:
   fitkin fit argon_visc.csv --formula Ar --out fit-argon
   fitkin fit visc.csv cond.csv --molar-mass "83.798 g/mol" --name krypton --out fit-kr
   fitkin fit visc.csv --formula Ar --property viscosity --order 2 --out fit2 --force
+  fitkin fit visc.csv --formula Ar --potential lj,mie,exp6 --out compare
 """
 _EPILOG_PREDICT = """examples:
   fitkin predict fit-argon/parameters.json --temperatures 200:1000:100
@@ -71,8 +72,11 @@ def build_parser() -> argparse.ArgumentParser:
     p.add_argument("--force", action="store_true", help="replace existing outputs in DIR")
     p.add_argument("--property", choices=("viscosity", "conductivity", "both"), default="both",
                    help="which measured properties to fit (default: all found)")
-    p.add_argument("--potential", default="lj", metavar="NAME",
-                   help="pair potential: lj (Lennard-Jones 12-6, default)")
+    p.add_argument("--potential", default="lj", metavar="NAMES",
+                   help="pair potential(s), comma-separated: lj (Lennard-Jones 12-6, default), mie (Mie n-6 "
+                        "with n fitted), mie:N (n fixed), exp6 (exp-6 with α fitted), exp6:ALPHA, hs (hard "
+                        "spheres), or a tabulated potential FILE; with several, the first is written to "
+                        "parameters.json, the others to parameters-NAME.json, and a comparison table is shown")
     p.add_argument("--order", type=int, default=3, help="Sonine approximation of Chapman–Enskog theory (default 3)")
     p.add_argument("--collision", choices=("computed", "neufeld"), default="computed",
                    help="collision integrals computed from the potential (default) or the Neufeld et al. "

@@ -55,30 +55,57 @@ def _gas(args):
     return Gas(name=args.name or "gas", molar_mass=molar_mass, molar_mass_source="given on the command line")
 
 
-def _potential(name: str):
-    from . import potentials
-    table = {"lj": potentials.LennardJones}
-    if name not in table:
-        raise FitkinError(f"unknown potential '{name}'; available: {', '.join(table)}")
-    return table[name]()
+def _choices(text: str):
+    from .inference.compare import parse_potential_choice
+    items = [t for t in (x.strip() for x in text.split(",")) if t]
+    if not items:
+        raise FitkinError("--potential needs at least one name, e.g. lj or lj,mie")
+    return [parse_potential_choice(t) for t in items]
 
 
-def fit_files(tables, gas, *, potential, order, collision, kinds, out_dir, force, truth=None):
-    """Fit, write ``out_dir/parameters.json`` and return (result, path, summary text)."""
-    from .inference.fitdata import FitData
+def _slug(label: str) -> str:
+    return "".join(c if c.isalnum() else "-" for c in label.split(" ")[0]).strip("-") or "potential"
+
+
+def _fit_one(data, tables, gas, choice, order, collision, truth=None):
     from .inference.leastsq import fit_least_squares
-    from .io.atomic import check_can_write
-    from .io.parameter_file import result_to_record, write_parameter_file
-    target = Path(out_dir) / PARAMETERS_NAME
-    check_can_write(target, force)  # fail before the work, not after it
-    data = FitData.from_tables(tables, kinds)
-    result = fit_least_squares(data, gas, potential, order=order, collision=collision)
+    from .io.parameter_file import result_to_record
+    result = fit_least_squares(data, gas, choice.potential, free_shape=choice.free_shape, order=order,
+                               collision=collision)
     t_star = result.data.temperature / result.value("epsilon_over_k")
     record = result_to_record(result, tables, t_star_range=(float(t_star.min()), float(t_star.max())))
+    record["potential"]["label"] = choice.label
     if truth:
         record["demo_truth"] = dict(truth)
-    path = write_parameter_file(record, target, force=force)
-    return result, path, format_fit_summary(result, path, truth=truth)
+    return result, record
+
+
+def fit_files(tables, gas, *, choices, order, collision, kinds, out_dir, force, truth=None):
+    """Fit each potential choice; write ``out_dir/parameters.json`` for the first and
+    ``parameters-<name>.json`` for the others. Returns (results, paths, summary text)."""
+    from .inference.compare import comparison_rows, format_comparison
+    from .inference.fitdata import FitData
+    from .io.atomic import check_can_write
+    from .io.parameter_file import write_parameter_file
+    out_dir = Path(out_dir)
+    targets = [out_dir / PARAMETERS_NAME] + [out_dir / f"parameters-{_slug(c.label)}.json" for c in choices[1:]]
+    if len(set(targets)) != len(targets):
+        raise FitkinError("two --potential choices would write the same file; list each shape once")
+    for t in targets:
+        check_can_write(t, force)  # fail before the work, not after it
+    data = FitData.from_tables(tables, kinds)
+    fitted = [_fit_one(data, tables, gas, c, order, collision, truth) for c in choices]
+    results = [r for r, _ in fitted]
+    text = format_fit_summary(results[0], targets[0], truth=truth)
+    if len(choices) > 1:
+        rows = comparison_rows(list(zip(choices, results)))
+        for _, record in fitted:
+            record["comparison"] = rows
+        text += "\n\nPotential shapes compared on the same data (lowest BIC preferred):\n"
+        text += format_comparison(rows)
+        text += "\n" + "\n".join(f"  {c.label}: {t}" for c, t in zip(choices, targets))
+    paths = [write_parameter_file(record, t, force=force) for (_, record), t in zip(fitted, targets)]
+    return results, paths, text
 
 
 def run_fit(args, out) -> int:
@@ -87,7 +114,7 @@ def run_fit(args, out) -> int:
         for w in t.warnings:
             print(f"warning: {w}", file=out)
     kinds = None if args.property == "both" else (args.property,)
-    _, _, text = fit_files(tables, _gas(args), potential=_potential(args.potential), order=args.order,
+    _, _, text = fit_files(tables, _gas(args), choices=_choices(args.potential), order=args.order,
                            collision=args.collision, kinds=kinds, out_dir=args.out, force=args.force)
     print(text, file=out)
     return 0
@@ -173,8 +200,7 @@ def run_demo(args, out) -> int:
         print(f"  wrote {p}", file=out)
     tables = read_tables(paths)
     gas = Gas.from_formula(demo.DEMO_GAS["formula"], name=demo.DEMO_GAS["name"])
-    from .potentials import LennardJones
-    _, _, text = fit_files(tables, gas, potential=LennardJones(), order=3, collision="computed", kinds=None,
+    _, _, text = fit_files(tables, gas, choices=_choices("lj"), order=3, collision="computed", kinds=None,
                            out_dir=folder, force=args.force, truth=demo.TRUE_PARAMETERS)
     print("", file=out)
     print(text, file=out)

@@ -29,8 +29,8 @@ class InputError(FitkinError):
     Parameters
     ----------
     message : what is wrong and what was expected.
-    file, row, column : where; ``row`` counts lines of the file as a spreadsheet shows them
-        (the header is row 1), ``column`` is the header text or a column letter.
+    file, row, column : where; ``row`` is the line of the file as a text editor or a
+        spreadsheet shows it (comment lines count), ``column`` is the header text.
     hint : a suggestion the user can act on (for example a likely unit slip).
     """
 

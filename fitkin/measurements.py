@@ -31,7 +31,7 @@ class PropertySeries:
     uncertainty : (n,) absolute standard uncertainty u(value) in SI; NaN where not stated.
     pressure : (n,) Pa; NaN where not stated.
     source : (n,) str labels of the instrument or paper; the file name where no column gives one.
-    rows : (n,) int, the row of each point in its file (header = row 1).
+    rows : (n,) int, the row of each point in its file, as a text editor or spreadsheet shows it.
     file : the file's path as given.
     unit : the unit text of the value column as found in the header.
     uncertainty_kind : "absolute", "relative" or "none".

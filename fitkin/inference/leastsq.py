@@ -14,6 +14,7 @@ from scipy import stats
 
 from ..errors import FitError, FitkinError, OutOfRangeError
 from ..species import Gas
+from ..theory.transport import TransportModel
 from ..theory.quantum import QUANTUM_WARNING_RATIO, thermal_wavelength_ratio
 from .fitdata import FitData
 from .model import ANGSTROM, ForwardModel
@@ -82,6 +83,11 @@ def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(),
         from ..potentials import LennardJones
         potential = LennardJones()
     fixed = dict(fixed or {})
+    if getattr(potential, "name", None) == "hs" and "epsilon_over_k" not in fixed:
+        # hard spheres have no energy scale: Ω ≡ 1, so ε/k is held at any value that keeps
+        # T* inside the table (it does not enter any prediction)
+        lo_t, hi_t = TransportModel(potential, order=1, collision=collision).t_star_range
+        fixed["epsilon_over_k"] = float(np.sqrt(data.temperature.min() / lo_t * data.temperature.max() / hi_t))
     model = ForwardModel(gas=gas, potential=potential, free_shape=tuple(free_shape), order=order,
                          collision=collision)
     n_free = 2 + len(model.free_shape) - len(fixed)
