@@ -1,4 +1,14 @@
-"""fitkin: intermolecular-potential parameters from measured dilute-gas transport data."""
+"""fitkin: intermolecular-potential parameters from measured dilute-gas transport data.
+
+The main entry points, importable from the top level:
+
+* :func:`read_table` / :func:`read_tables` — measured tables in any sensible units → SI.
+* :class:`Gas` — the gas (formula or molar mass).
+* :func:`fit_least_squares` — σ, ε/k (and shape parameters) with standard errors.
+* :class:`TransportModel` — Chapman–Enskog μ, k, D for a potential shape.
+* :func:`load_parameters` — a saved fit, for reuse downstream.
+"""
+from importlib import import_module
 from importlib.metadata import PackageNotFoundError, version as _version
 
 try:
@@ -6,4 +16,23 @@ try:
 except PackageNotFoundError:  # running from a source tree that was not installed
     __version__ = "0.0.0+unknown"
 
-__all__ = ["__version__"]
+_LAZY = {
+    "read_table": "fitkin.io",
+    "read_tables": "fitkin.io",
+    "Gas": "fitkin.species",
+    "fit_least_squares": "fitkin.inference.leastsq",
+    "FitData": "fitkin.inference.fitdata",
+    "TransportModel": "fitkin.theory.transport",
+    "load_parameters": "fitkin.fitted",
+    "FittedGas": "fitkin.fitted",
+}
+
+__all__ = ["__version__", *_LAZY]
+
+
+def __getattr__(name):  # PEP 562: import on first use, keeps `fitkin --help` fast
+    if name in _LAZY:
+        value = getattr(import_module(_LAZY[name]), name)
+        globals()[name] = value
+        return value
+    raise AttributeError(f"module 'fitkin' has no attribute {name!r}")
