@@ -86,10 +86,10 @@ def report_findings(record: dict, model=None) -> list[Finding]:
 
     if model is not None:
         ts_lo, ts_hi = model.t_star_range()
-        findings.append(Finding("note", f"predictions can be computed for {ts_lo * eps:.0f}–{ts_hi * eps:.0f} K "
-                                        f"(T* = {ts_lo:g}–{ts_hi:g}, the range of the collision integrals); outside "
-                                        f"the measured {t_lo:.0f}–{t_hi:.0f} K they are extrapolations, drawn "
-                                        "dashed on a tinted background in the figures"))
+        findings.append(Finding("note", f"the collision integrals cover T* = {ts_lo:g}–{ts_hi:g}, that is "
+                                        f"{ts_lo * eps:.0f}–{ts_hi * eps:.0f} K for this ε/k; outside the measured "
+                                        f"{t_lo:.0f}–{t_hi:.0f} K every prediction is an extrapolation (dashed, on a "
+                                        "tinted background in the figures)"))
         if t_lo / eps < ts_lo * 1.05 or t_hi / eps > ts_hi * 0.95:
             findings.append(Finding("warning", f"the measured reduced temperatures T* = {t_lo / eps:.3g}–"
                                                f"{t_hi / eps:.3g} reach the edge of the collision-integral range "

@@ -126,7 +126,8 @@ class ElementaryComparison:
     """Everything the report says about elementary theory, as plain data.
 
     ``eucken_measured`` is k_measured M / (μ_fit c_v) at the conductivity points (the fitted
-    viscosity stands in for one measured at the same temperature); None without conductivity.
+    viscosity stands in for one measured at the same temperature), ``eucken_fitted`` the same
+    with the fitted k; None without conductivity.
     ``cv_molecule`` is the heat capacity per molecule (J/K) used in ⅓C_v v̄ λ; ``notes`` are
     caveats in plain words.
     """
@@ -135,6 +136,7 @@ class ElementaryComparison:
     properties: dict = field(default_factory=dict)
     eucken_temperature: np.ndarray | None = None
     eucken_measured: np.ndarray | None = None
+    eucken_fitted: np.ndarray | None = None
     cv_molecule: float = el.MONATOMIC_CV
     notes: tuple = ()
     explanation: tuple = EXPLANATION
@@ -204,11 +206,13 @@ def elementary_comparison(record: dict, pressure: float = 101325.0, model=None,
             fitted=np.array([r["model_SI"] for r in rows], dtype=float), elementary=estimate(diameter(t)),
             source=np.array([str(r.get("source", "")) for r in rows], dtype=object),
             elementary_fixed_diameter=estimate(d_ref))
-    eucken_T = eucken = None
+    eucken_T = eucken = eucken_fit = None
     if "conductivity" in props:
         c = props["conductivity"]
         eucken_T = c.temperature
-        eucken = c.measured * m / (model.evaluate("viscosity", c.temperature) * cv)
+        mu_fit = model.evaluate("viscosity", c.temperature)
+        eucken = c.measured * m / (mu_fit * cv)
+        eucken_fit = model.evaluate("conductivity", c.temperature) * m / (mu_fit * cv)
     notes = []
     atoms = _atom_count(record)
     if atoms is not None and atoms > 1:
@@ -219,7 +223,7 @@ def elementary_comparison(record: dict, pressure: float = 101325.0, model=None,
         notes.append("the fit uses a higher Chapman–Enskog approximation, so fit/elementary exceeds the "
                      "rigid-sphere first-approximation ratio by that correction (about 1–3 %)")
     return ElementaryComparison(scales=scales, properties=props, eucken_temperature=eucken_T,
-                                eucken_measured=eucken, cv_molecule=cv, notes=tuple(notes))
+                                eucken_measured=eucken, eucken_fitted=eucken_fit, cv_molecule=cv, notes=tuple(notes))
 
 
 def _atom_count(record: dict) -> int | None:

@@ -23,7 +23,7 @@ from .checks import report_findings
 from .comparison import elementary_comparison
 from .narrative import elementary_section, provenance_section
 from .sections import (OPTIONAL_SECTIONS, LABELS, UNIT_TEXT, ReportContext, Section, chi2_probability,
-                       figure_html, parameters_section, statistics_section)
+                       figure_html, parameters_section, potential_text, statistics_section)
 
 __all__ = ["write_report", "build_report", "render_page", "REPORT_NAME", "FIGURE_FOLDER", "CAUTION"]
 
@@ -111,6 +111,11 @@ def _summary(ctx: ReportContext) -> Section:
         f'<div class="card"><div class="label">{escape(a)}</div><div class="value">{escape(b)}</div>'
         f'<div class="sub">{escape(c)}</div></div>' for a, b, c in cards) + "</div>"
     html += f'<p class="verdict">{_verdict(s, prob, n_warn)}</p>'
+    html += (f'<p class="small">Model: {escape(potential_text(r.get("potential")))}, Chapman–Enskog order '
+             f'{escape(str((r.get("theory") or {}).get("sonine_order")))}, collision integrals '
+             f'{escape(str((r.get("theory") or {}).get("collision_integrals")))}. Predictions outside '
+             f"{lo:.0f}–{hi:.0f} K are extrapolations: read the Caution at the end before using any prediction "
+             "in design.</p>")
     return Section("summary", "Summary", html)
 
 
@@ -184,7 +189,7 @@ def render_page(ctx: ReportContext, sections: list[Section]) -> str:
     """Assemble the sections into one HTML document with inline CSS and a print layout."""
     r = ctx.record
     gas = (r.get("gas") or {}).get("name", "gas")
-    pot = (r.get("potential") or {}).get("name", "?")
+    pot = potential_text(r.get("potential"))
     made = _dt.datetime.now(_dt.timezone.utc).strftime("%Y-%m-%d %H:%M UTC")
     nav = "".join(f'<a href="#{escape(s.id)}">{escape(s.title)}</a>' for s in sections[1:]) + \
         '<a href="#caution">Caution</a>'
@@ -201,7 +206,7 @@ def render_page(ctx: ReportContext, sections: list[Section]) -> str:
         f"<meta name=\"generator\" content=\"fitkin {escape(__version__)}\">"
         f"<title>fitkin fit report: {escape(gas)}</title><style>{st.PAGE_CSS}</style></head><body><main>"
         f'<header class="top"><h1>Fit report: {escape(gas)}</h1>'
-        f"<p>Potential {escape(str(pot))}, Chapman–Enskog order {escape(str((r.get('theory') or {}).get('sonine_order')))}"
+        f"<p>{escape(pot)} potential, Chapman–Enskog order {escape(str((r.get('theory') or {}).get('sonine_order')))}"
         f" · fit made {escape(str((r.get('provenance') or {}).get('created_utc', '?')))} · report made {made} · "
         f"fitkin {escape(__version__)}</p>{synthetic}</header>"
         f'<nav class="toc">{nav}</nav>' + "".join(body) + caution +

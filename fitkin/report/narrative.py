@@ -8,7 +8,7 @@ import numpy as np
 
 from .. import __version__
 from .comparison import EUCKEN_CHAPMAN_ENSKOG, EUCKEN_ELEMENTARY
-from .sections import ReportContext, Section, figure_html, table
+from .sections import ReportContext, Section, figure_html, potential_text, sci, table
 
 __all__ = ["elementary_section", "provenance_section", "MAX_COMPARISON_ROWS"]
 
@@ -34,7 +34,7 @@ def elementary_section(ctx: ReportContext) -> Section | None:
              f"p = {sc.pressure / 1e3:g} kPa; μ and k themselves do not depend on pressure.</p>"]
     idx = _thin(sc.temperature.size)
     rows = [[f"{sc.temperature[i]:.1f}", f"{sc.reduced_temperature[i]:.3f}", f"{sc.diameter[i] * 1e10:.3f}",
-             f"{sc.mean_speed[i]:.1f}", f"{sc.number_density[i]:.3e}", f"{sc.mean_free_path[i] * 1e9:.1f}",
+             f"{sc.mean_speed[i]:.1f}", sci(sc.number_density[i]), f"{sc.mean_free_path[i] * 1e9:.1f}",
              f"{sc.mean_free_path[i] / sc.diameter[i]:.0f}"] for i in idx]
     parts.append("<h3>Molecular scales</h3>")
     parts.append(table(["T [K]", "T*", "d [Å]", "v̄ = √(8kT/πm) [m/s]", "n [1/m³]", "λ [nm]", "λ/d"], rows,
@@ -46,8 +46,8 @@ def elementary_section(ctx: ReportContext) -> Section | None:
         sym, unit, scale, formula = names[kind]
         order = np.argsort(c.temperature, kind="stable")
         sel = order[_thin(order.size)]
-        rows = [[f"{c.temperature[i]:.1f}", c.source[i], f"{c.measured[i] * scale:.4g}", f"{c.fitted[i] * scale:.4g}",
-                 f"{c.elementary[i] * scale:.4g}", f"{c.measured_over_elementary[i]:.3f}",
+        rows = [[f"{c.temperature[i]:.1f}", c.source[i], f"{c.measured[i] * scale:#.4g}",
+                 f"{c.fitted[i] * scale:#.4g}", f"{c.elementary[i] * scale:#.4g}", f"{c.measured_over_elementary[i]:.3f}",
                  f"{c.fitted_over_elementary[i]:.3f}"] for i in sel]
         parts.append(f"<h3>{escape(kind.capitalize())}: {sym} = {formula} against data and fit</h3>")
         parts.append(table(["T [K]", "source", f"measured [{unit}]", f"Chapman–Enskog fit [{unit}]",
@@ -59,8 +59,9 @@ def elementary_section(ctx: ReportContext) -> Section | None:
         frac = "15π/32" if kind == "viscosity" else "75π/64"
         rows.append([f"{names[kind][0]} / {names[kind][3]}", f"{frac} = {hs:.4f}", f"{fit_r:.4f}", f"{meas_r:.4f}"])
     if comp.eucken_measured is not None:
+        fit_f = f"{float(np.median(comp.eucken_fitted)):.4f}" if comp.eucken_fitted is not None else "—"
         rows.append(["Eucken factor f = kM/(μ c_v)", f"{EUCKEN_CHAPMAN_ENSKOG:g} (elementary: {EUCKEN_ELEMENTARY:g})",
-                     "—", f"{float(np.median(comp.eucken_measured)):.4f}"])
+                     fit_f, f"{float(np.median(comp.eucken_measured)):.4f}"])
     parts.append("<h3>Ratios (medians over the measured points)</h3>")
     parts.append(table(["ratio", "rigid spheres, Chapman–Enskog", "this fit", "the data"], rows))
     parts.append(figure_html(ctx, "elementary"))
@@ -98,8 +99,7 @@ def provenance_section(ctx: ReportContext) -> Section:
             ["gas", f"{gas.get('name', '—')}; formula {gas.get('formula') or '—'}; "
                     f"M = {1e3 * float(gas.get('molar_mass_kg_per_mol', float('nan'))):.5g} g/mol "
                     f"({gas.get('molar_mass_source', '—')})"],
-            ["potential", f"{pot.get('name', '—')} {pot.get('shape_parameters') or ''}".strip()
-             + (f"; free shape: {', '.join(pot['free_shape'])}" if pot.get("free_shape") else "")],
+            ["potential", potential_text(pot)],
             ["Chapman–Enskog approximation", f"order {theory.get('sonine_order', '—')}"],
             ["collision integrals", str(theory.get("collision_integrals", "—"))],
             ["weighting", (r.get("statistics") or {}).get("weighting", "—")],

@@ -18,11 +18,32 @@ from ..summary import format_estimate
 from . import style as st
 
 __all__ = ["Section", "ReportContext", "table", "figure_html", "parameters_section", "statistics_section",
-           "OPTIONAL_SECTIONS", "LABELS", "UNIT_TEXT"]
+           "OPTIONAL_SECTIONS", "LABELS", "UNIT_TEXT", "potential_text", "sci"]
 
 LABELS = {"sigma": "σ", "epsilon_over_k": "ε/k", "n": "n (repulsive exponent)", "m": "m (attractive exponent)",
           "alpha": "α (steepness)"}
 UNIT_TEXT = {"angstrom": "Å", "K": "K", "1": ""}
+POTENTIAL_NAMES = {"lj": "Lennard-Jones", "hs": "rigid spheres", "mie": "Mie", "exp6": "exp-6"}
+
+
+def potential_text(entry: dict) -> str:
+    """'Lennard-Jones (n = 12, m = 6)' from the record's potential entry."""
+    entry = entry or {}
+    name = POTENTIAL_NAMES.get(entry.get("name"), str(entry.get("name", "?")))
+    shape = entry.get("shape_parameters") or {}
+    text = name + (" (" + ", ".join(f"{k} = {v:g}" if isinstance(v, (int, float)) else f"{k} = {v}"
+                                    for k, v in shape.items()) + ")" if shape else "")
+    free = entry.get("free_shape") or []
+    return text + (f", fitted shape: {', '.join(free)}" if free else "")
+
+
+def sci(x: float, digits: int = 3) -> str:
+    """3.67 × 10²⁵ style scientific notation."""
+    if x == 0 or not np.isfinite(x):
+        return f"{x:g}"
+    e = int(np.floor(np.log10(abs(x))))
+    sup = str(e).translate(str.maketrans("-0123456789", "⁻⁰¹²³⁴⁵⁶⁷⁸⁹"))
+    return f"{x / 10 ** e:.{digits - 1}f} × 10{sup}"
 
 
 @dataclass(frozen=True)
@@ -81,7 +102,9 @@ def figure_html(ctx: ReportContext, name: str) -> str:
         return ""
     caption = ctx.figures[name][1]
     data = base64.b64encode(ctx.png_of(name)).decode("ascii")
-    return (f'<figure id="fig-{escape(name)}"><img alt="{escape(caption)}" src="data:image/png;base64,{data}">'
+    width = int(ctx.figures[name][0].get_figwidth() * 122)
+    return (f'<figure id="fig-{escape(name)}"><img alt="{escape(caption)}" style="max-width:{width}px" '
+            f'src="data:image/png;base64,{data}">'
             f"<figcaption>{escape(caption)}</figcaption></figure>")
 
 

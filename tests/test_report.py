@@ -1,0 +1,239 @@
+"""The HTML report: structure, figures, hooks, safety of outputs, and a look in a real browser."""
+import copy
+import shutil
+import subprocess
+import sys
+from html.parser import HTMLParser
+
+import numpy as np
+import pytest
+
+from fitkin.errors import OutputExistsError
+from fitkin.inference.fitdata import FitData
+from fitkin.inference.leastsq import fit_least_squares
+from fitkin.io.parameter_file import read_parameter_file, result_to_record, write_parameter_file
+from fitkin.measurements import MeasuredTable, PropertySeries
+from fitkin.report import build_report, write_report
+from fitkin.report.sections import Section
+from fitkin.species import Gas
+from fitkin.theory.transport import TransportModel
+
+GAS = Gas.from_formula("Kr", name="krypton <test> & co")
+SECTIONS = ("summary", "data-and-fit", "deviations", "parameters", "statistics", "joint", "elementary",
+            "diagnostics", "provenance", "caution")
+FIGURES = ("fit_viscosity", "fit_conductivity", "deviations", "sigma_epsilon", "elementary")
+
+
+def _series(kind, T, y, rel_u, source, file):
+    n = len(T)
+    return PropertySeries(kind, T, y, rel_u * y, np.full(n, 1e5), np.full(n, source, dtype=object),
+                          np.arange(2, n + 2), file, "SI", "relative")
+
+
+def _record(kinds=("viscosity", "conductivity")):
+    """Invented krypton-like data (two viscosity sources, one conductivity source), fitted to
+    first order with the Neufeld correlation."""
+    tm = TransportModel(order=1, collision="neufeld")
+    rng = np.random.default_rng(5)
+    s, e, M = 3.65e-10, 178.0, GAS.molar_mass
+    T1, T2, T3 = np.linspace(220, 870, 14), np.linspace(300, 600, 6), np.linspace(200, 700, 11)
+    tables = [MeasuredTable("visc.csv", "a" * 64, (_series("viscosity", T1, tm.viscosity(T1, M, s, e) * (
+                  1 + rng.normal(0, 0.0025, T1.size)), 0.0025, "disc-A", "visc.csv"),)),
+              MeasuredTable("visc2.csv", "b" * 64, (_series("viscosity", T2, tm.viscosity(T2, M, s, e) * (
+                  1.003 + rng.normal(0, 0.004, T2.size)), 0.004, "capillary-C", "visc2.csv"),)),
+              MeasuredTable("cond.txt", "c" * 64, (_series("conductivity", T3, tm.conductivity(T3, M, s, e) * (
+                  1 + rng.normal(0, 0.01, T3.size)), 0.01, "wire-B", "cond.txt"),))]
+    res = fit_least_squares(FitData.from_tables(tables, kinds), GAS, order=1, collision="neufeld")
+    ts = res.data.temperature / res.value("epsilon_over_k")
+    return result_to_record(res, tables, t_star_range=(float(ts.min()), float(ts.max())))
+
+
+@pytest.fixture(scope="module")
+def record():
+    return _record()
+
+
+class _Page(HTMLParser):
+    """Collects ids, images, inline svgs, links and text of a page."""
+
+    def __init__(self):
+        super().__init__()
+        self.ids, self.imgs, self.svgs, self.urls, self.text, self.tags = [], [], 0, [], [], []
+
+    def handle_starttag(self, tag, attrs):
+        a = dict(attrs)
+        self.tags.append(tag)
+        if "id" in a:
+            self.ids.append(a["id"])
+        if tag == "img":
+            self.imgs.append(a)
+        if tag == "svg":
+            self.svgs += 1
+        for key in ("src", "href", "action", "data"):
+            if key in a:
+                self.urls.append(a[key])
+
+    def handle_data(self, data):
+        self.text.append(data)
+
+
+def _parse(text):
+    page = _Page()
+    page.feed(text)
+    page.close()
+    page.all_text = " ".join(page.text)
+    return page
+
+
+@pytest.fixture(scope="module")
+def written(record, tmp_path_factory):
+    out = tmp_path_factory.mktemp("report")
+    path = write_report(record, out)
+    return out, path, _parse(path.read_text(encoding="utf-8"))
+
+
+def test_page_has_every_section_and_figure(written):
+    out, path, page = written
+    assert path == out / "report.html"
+    for sid in SECTIONS:
+        assert sid in page.ids, sid
+    for name in FIGURES:
+        assert f"fig-{name}" in page.ids, name
+    assert len(page.imgs) + page.svgs == len(FIGURES)
+    assert all(img["src"].startswith("data:image/png;base64,") and img.get("alt") for img in page.imgs)
+
+
+def test_page_is_self_contained(written):
+    _, path, page = written
+    text = path.read_text(encoding="utf-8")
+    assert all(u.startswith(("data:", "#")) for u in page.urls), [u[:40] for u in page.urls]
+    assert "http://" not in text and "https://" not in text
+    assert "<link" not in text and "<script" not in text
+    assert "@media print" in text
+
+
+def test_figures_saved_as_png_and_svg(written):
+    out, _, _ = written
+    for name in FIGURES:
+        png, svg = out / "figures" / f"{name}.png", out / "figures" / f"{name}.svg"
+        assert png.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n"
+        assert b"<svg" in svg.read_bytes()[:2000]
+
+
+def test_summary_and_content(written, record):
+    _, _, page = written
+    t = page.all_text
+    assert "krypton <test> & co" in t            # escaped in the source, intact as text
+    assert "reduced χ²" in t and "rms deviation" in t and "warnings" in t
+    sigma = record["parameters"]["sigma"]
+    assert f"{sigma['value']:.4f}" in t
+    assert "15π/32" in t and "75π/64" in t and "Eucken" in t
+    assert "safety-relevant" in t and "licensed engineering practice" in t
+    assert "a" * 64 in t                           # data file hash in the provenance
+    assert "consistent with the stated uncertainties" in t
+
+
+def test_never_overwrites_without_force(record, written):
+    out, path, _ = written
+    before = path.read_bytes()
+    with pytest.raises(OutputExistsError):
+        write_report(record, out)
+    assert path.read_bytes() == before
+    (out / "report.html").unlink()
+    with pytest.raises(OutputExistsError):     # the figures are results as well
+        write_report(record, out)
+    assert write_report(record, out, force=True).is_file()
+
+
+def test_regenerates_from_parameter_file(record, tmp_path):
+    p = write_parameter_file(record, tmp_path / "parameters.json")
+    rec = read_parameter_file(p)
+    out = write_report(rec, tmp_path, record_path=p)
+    assert str(p) in out.read_text(encoding="utf-8")
+
+
+def test_viscosity_only_fit_marks_conductivity_as_prediction(tmp_path):
+    rec = _record(kinds=("viscosity",))
+    html, ctx = build_report(rec)
+    page = _parse(html)
+    assert "fig-fit_conductivity" in page.ids
+    assert "conductivity was not measured" in page.all_text
+    assert "conductivity" not in ctx.comparison.properties
+
+
+def test_uncertainties_and_outliers(record):
+    rec = copy.deepcopy(record)
+    for r in rec["residuals"]:
+        r["uncertainty_SI"] = 0.001 * r["measured_SI"]     # far too small on purpose
+    html, ctx = build_report(rec)
+    assert any("more than 3 u" in f.text for f in ctx.findings if f.level == "warning")
+
+
+def test_warnings_from_the_fit_are_shown(record):
+    rec = copy.deepcopy(record)
+    rec["warnings"] = ["σ and ε/k are almost fully correlated (r = +0.990): test warning"]
+    html, ctx = build_report(rec)
+    page = _parse(html)
+    assert "test warning" in page.all_text
+    assert sum(f.level == "warning" for f in ctx.findings) >= 1
+
+
+def _with_posterior(record, folder, **extra):
+    rec = copy.deepcopy(record)
+    cov = np.array(rec["covariance"]["matrix"])
+    mean = [rec["parameters"][n]["value"] for n in rec["covariance"]["names"]]
+    draws = np.random.default_rng(3).multivariate_normal(mean, cov, size=3000)
+    np.savez(folder / "samples.npz", samples=draws, names=np.array(rec["covariance"]["names"]))
+    rec["posterior"] = {"samples_file": "samples.npz", "seed": 42, **extra}
+    return rec
+
+
+def test_posterior_samples_are_used(record, tmp_path):
+    rec = _with_posterior(record, tmp_path, converged=False, acceptance_fraction=0.05)
+    html, ctx = build_report(rec, record_path=tmp_path / "parameters.json")
+    assert ctx.curves["viscosity"].source == "posterior"
+    assert "posterior samples" in ctx.figures["sigma_epsilon"][1]
+    texts = " ".join(f.text for f in ctx.findings if f.level == "warning")
+    assert "not converged" in texts and "acceptance fraction" in texts
+
+
+def test_missing_samples_fall_back_to_covariance(record, tmp_path):
+    rec = copy.deepcopy(record)
+    rec["posterior"] = {"samples_file": "gone.npz"}
+    html, ctx = build_report(rec, record_path=tmp_path / "parameters.json")
+    assert ctx.curves["viscosity"].source == "covariance"
+    assert any("could not be read" in f.text for f in ctx.findings)
+
+
+def test_section_hooks(record):
+    rec = copy.deepcopy(record)
+    rec["eucken"] = {"T_K": [300.0, 400.0], "factor": [1.9, 1.95], "label": "test gas"}
+    rec["potential_comparison"] = [{"potential": "Mie 14-6", "parameters": {"sigma": 3.6},
+                                    "reduced_chi2": 0.9, "rms_deviation_percent": 0.3}]
+    html, ctx = build_report(rec, extra_sections=[lambda c: Section("extra", "Extra section", "<p>hello</p>")])
+    page = _parse(html)
+    for sid in ("eucken", "potentials", "extra", "fig-eucken"):
+        assert sid in page.ids
+    assert "Mie 14-6" in page.all_text
+
+
+def test_no_pyplot_state(record):
+    had = "matplotlib.pyplot" in sys.modules
+    build_report(record)
+    if not had:
+        assert "matplotlib.pyplot" not in sys.modules
+
+
+def test_screenshot_in_headless_browser(written, tmp_path):
+    browser = shutil.which("chromium") or shutil.which("chromium-browser")
+    if browser is None:
+        pytest.skip("no chromium on this machine: the headless-browser screenshot check is skipped")
+    _, path, _ = written
+    shot = tmp_path / "report.png"
+    subprocess.run([browser, "--headless", "--no-sandbox", "--disable-gpu", "--hide-scrollbars",
+                    f"--screenshot={shot}", "--window-size=1200,2400", path.as_uri()],
+                   capture_output=True, timeout=60, check=False)
+    assert shot.is_file() and shot.stat().st_size > 20000
+    import matplotlib.image as mpimg
+    pixels = mpimg.imread(shot)
+    assert pixels.std() > 0.05          # not a blank page
