@@ -14,6 +14,8 @@ from fitkin.inference.leastsq import fit_least_squares
 from fitkin.io.parameter_file import read_parameter_file, result_to_record, write_parameter_file
 from fitkin.measurements import MeasuredTable, PropertySeries
 from fitkin.report import build_report, write_report
+from fitkin.report.bands import RecordModel
+from fitkin.report.checks import report_findings
 from fitkin.report.sections import Section
 from fitkin.species import Gas
 from fitkin.theory.transport import TransportModel
@@ -165,8 +167,8 @@ def test_uncertainties_and_outliers(record):
     rec = copy.deepcopy(record)
     for r in rec["residuals"]:
         r["uncertainty_SI"] = 0.001 * r["measured_SI"]     # far too small on purpose
-    html, ctx = build_report(rec)
-    assert any("more than 3 u" in f.text for f in ctx.findings if f.level == "warning")
+    findings = report_findings(rec, RecordModel(rec))
+    assert any("more than 3 u" in f.text for f in findings if f.level == "warning")
 
 
 def test_warnings_from_the_fit_are_shown(record):
@@ -200,9 +202,9 @@ def test_posterior_samples_are_used(record, tmp_path):
 def test_missing_samples_fall_back_to_covariance(record, tmp_path):
     rec = copy.deepcopy(record)
     rec["posterior"] = {"samples_file": "gone.npz"}
-    html, ctx = build_report(rec, record_path=tmp_path / "parameters.json")
-    assert ctx.curves["viscosity"].source == "covariance"
-    assert any("could not be read" in f.text for f in ctx.findings)
+    model = RecordModel(rec, tmp_path / "parameters.json")
+    assert model.curve("viscosity", [300.0, 400.0]).source == "covariance"
+    assert any("could not be read" in f.text for f in report_findings(rec, model))
 
 
 def test_section_hooks(record):

@@ -29,6 +29,8 @@ __all__ = ["write_report", "build_report", "render_page", "REPORT_NAME", "FIGURE
 
 REPORT_NAME = "report.html"
 FIGURE_FOLDER = "figures"
+#: Figures every report has (file-name stems under FIGURE_FOLDER); sections may add more.
+STANDARD_FIGURES = ("fit_viscosity", "fit_conductivity", "deviations", "sigma_epsilon", "elementary")
 CAUTION = ("Parameters and predictions in this report come from a model fitted to the data listed under "
            "Provenance. Predictions, above all those outside the measured temperature range or for properties "
            "that were not measured, must be verified independently before they are used in safety-relevant "
@@ -215,6 +217,13 @@ def render_page(ctx: ReportContext, sections: list[Section]) -> str:
         "</main></body></html>\n")
 
 
+def _check_figures(folder: Path, names, force: bool) -> None:
+    clash = [folder / f"{n}.{ext}" for n in names for ext in ("png", "svg") if (folder / f"{n}.{ext}").exists()]
+    if clash and not force:
+        raise OutputExistsError(f"{clash[0]} already exists; choose another output folder or pass --force to "
+                                "replace the report")
+
+
 def write_report(record: dict, out_dir, *, force: bool = False, record_path=None, pressure: float = 101325.0,
                  extra_sections=()) -> Path:
     """Write ``out_dir/report.html`` and ``out_dir/figures/*.png|svg`` from a parameter-file record.
@@ -233,13 +242,10 @@ def write_report(record: dict, out_dir, *, force: bool = False, record_path=None
     """
     out = Path(out_dir)
     target = check_can_write(out / REPORT_NAME, force)
-    html, ctx = build_report(record, record_path=record_path, pressure=pressure, extra_sections=extra_sections)
     folder = out / FIGURE_FOLDER
-    planned = [folder / f"{name}.{ext}" for name in ctx.figures for ext in ("png", "svg")]
-    clash = [p for p in planned if p.exists()]
-    if clash and not force:
-        raise OutputExistsError(f"{clash[0]} already exists; choose another output folder or pass --force to "
-                                "replace the report")
+    _check_figures(folder, STANDARD_FIGURES, force)  # fail before the work where possible
+    html, ctx = build_report(record, record_path=record_path, pressure=pressure, extra_sections=extra_sections)
+    _check_figures(folder, ctx.figures, force)
     for name, (fig, _) in ctx.figures.items():
         write_bytes_atomic(folder / f"{name}.png", ctx.png_of(name), force=force)
         write_bytes_atomic(folder / f"{name}.svg", fg.figure_bytes(fig, "svg"), force=force)
