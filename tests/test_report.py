@@ -185,38 +185,43 @@ def _with_posterior(record, folder, **extra):
     cov = np.array(rec["covariance"]["matrix"])
     mean = [rec["parameters"][n]["value"] for n in rec["covariance"]["names"]]
     draws = np.random.default_rng(3).multivariate_normal(mean, cov, size=3000)
-    np.savez(folder / "samples.npz", samples=draws, names=np.array(rec["covariance"]["names"]))
-    rec["posterior"] = {"samples_file": "samples.npz", "seed": 42, **extra}
+    np.savez_compressed(folder / "samples.npz", samples=draws, names=np.array(rec["covariance"]["names"]))
+    rec["posterior"] = {"samples": {"file": "samples.npz"}, "seed": 42, **extra}
     return rec
 
 
 def test_posterior_samples_are_used(record, tmp_path):
-    rec = _with_posterior(record, tmp_path, converged=False, acceptance_fraction=0.05)
+    rec = _with_posterior(record, tmp_path, converged=False,
+                          diagnostics={"converged": False, "not_converged_because": ["chains too short"],
+                                       "acceptance_fraction": 0.05},
+                          parameters={"sigma": {"p2_5": 3.63, "median": 3.646, "p97_5": 3.66}})
     html, ctx = build_report(rec, record_path=tmp_path / "parameters.json")
     assert ctx.curves["viscosity"].source == "posterior"
     assert "posterior samples" in ctx.figures["sigma_epsilon"][1]
     texts = " ".join(f.text for f in ctx.findings if f.level == "warning")
-    assert "not converged" in texts and "acceptance fraction" in texts
+    assert "did not converge (chains too short)" in texts and "acceptance fraction" in texts
+    assert "posterior percentiles" in html
 
 
 def test_missing_samples_fall_back_to_covariance(record, tmp_path):
     rec = copy.deepcopy(record)
-    rec["posterior"] = {"samples_file": "gone.npz"}
+    rec["posterior"] = {"samples": {"file": "gone.npz"}}
     model = RecordModel(rec, tmp_path / "parameters.json")
     assert model.curve("viscosity", [300.0, 400.0]).source == "covariance"
-    assert any("could not be read" in f.text for f in report_findings(rec, model))
+    assert any("missing, changed or unreadable" in f.text for f in report_findings(rec, model))
 
 
 def test_section_hooks(record):
     rec = copy.deepcopy(record)
     rec["eucken"] = {"T_K": [300.0, 400.0], "factor": [1.9, 1.95], "label": "test gas"}
-    rec["potential_comparison"] = [{"potential": "Mie 14-6", "parameters": {"sigma": 3.6},
-                                    "reduced_chi2": 0.9, "rms_deviation_percent": 0.3}]
+    rec["comparison"] = [{"potential": "Mie 14-6", "parameters": {"sigma": [3.6, 0.01], "n": [14.0, 0.5]},
+                          "reduced_chi2": 0.9, "aic": 30.1, "bic": 33.2, "delta_bic": 0.0,
+                          "max_abs_deviation_percent": 0.3}]
     html, ctx = build_report(rec, extra_sections=[lambda c: Section("extra", "Extra section", "<p>hello</p>")])
     page = _parse(html)
     for sid in ("eucken", "potentials", "extra", "fig-eucken"):
         assert sid in page.ids
-    assert "Mie 14-6" in page.all_text
+    assert "Mie 14-6" in page.all_text and "14.00 ± 0.50" in page.all_text
 
 
 def test_no_pyplot_state(record):

@@ -54,38 +54,28 @@ def _posterior_entry(record: dict) -> dict | None:
 def posterior_samples(record: dict, record_path=None) -> dict[str, np.ndarray] | None:
     """Posterior samples of the record as {parameter name: (n,) array}, or None.
 
-    Read, in this order: ``posterior["samples"]`` given inline as {name: list}; or a NumPy
-    ``.npz`` file named by ``posterior["samples_file"]`` (or ``posterior["samples"]`` as a
-    string), relative to the parameter file's folder, holding either one array per
-    parameter name or a 2-D array ``samples`` (n × p) with ``names``. Units are those of the
-    parameter table (σ in Å, ε/k in K). A missing or unreadable file gives None (the report
-    then says so and falls back to the covariance).
+    The record's ``posterior["samples"]`` references a ``.npz`` file (see
+    :func:`fitkin.inference.posterior.save_samples`) relative to the parameter file's folder;
+    it is read with :func:`fitkin.inference.posterior.load_samples`, which checks its SHA-256.
+    Units are those of the parameter table (σ in Å, ε/k in K). A missing, changed or
+    unreadable file gives None: the report then says so and uses the covariance.
     """
     post = _posterior_entry(record)
-    if post is None:
+    ref = post.get("samples") if post else None
+    if not isinstance(ref, dict) or not ref.get("file"):
         return None
-    inline = post.get("samples")
-    if isinstance(inline, dict):
-        out = {k: np.asarray(v, dtype=float).ravel() for k, v in inline.items()}
-        return out if out else None
-    ref = post.get("samples_file") or (inline if isinstance(inline, str) else None)
-    if not ref:
-        return None
-    path = Path(ref)
-    if not path.is_absolute() and record_path is not None:
-        path = Path(record_path).parent / path
-    if not path.is_file():
-        return None
+    from ..errors import ParameterFileError
+    from ..inference.posterior import load_samples
+    base = Path(record_path).parent if record_path is not None else Path(".")
     try:
-        with np.load(path, allow_pickle=False) as npz:
-            if "samples" in npz.files and "names" in npz.files:
-                arr = np.asarray(npz["samples"], dtype=float)
-                arr = arr.reshape(-1, arr.shape[-1])
-                return {str(n): arr[:, i] for i, n in enumerate(npz["names"])}
-            return {k: np.asarray(npz[k], dtype=float).ravel() for k in npz.files
-                    if k in record.get("parameters", {})}
-    except (OSError, ValueError):
+        names, samples = load_samples(ref, base)
+    except ParameterFileError:
         return None
+    samples = np.asarray(samples, dtype=float).reshape(len(samples), -1)
+    out = {n: samples[:, i] for i, n in enumerate(names)}
+    for k, v in (post.get("fixed") or {}).items():
+        out.setdefault(k, np.full(len(samples), float(v)))
+    return out if len(samples) else None
 
 
 class RecordModel:

@@ -51,23 +51,27 @@ def _posterior_findings(record: dict, have_samples: bool) -> list[Finding]:
     if not isinstance(post, dict) or not post:
         return []
     out = []
-    if not have_samples:
-        out.append(Finding("warning", "the record names posterior samples that could not be read; the σ–ε "
-                                      "figure and the bands use the least-squares covariance instead"))
-    if post.get("converged") is False:
-        out.append(Finding("warning", "posterior sampling is marked as not converged: treat the posterior "
-                                      "percentiles and bands as provisional"))
-    acc = post.get("acceptance_fraction")
-    if isinstance(acc, (int, float)) and not 0.15 <= acc <= 0.75:
-        out.append(Finding("warning", f"mean acceptance fraction of the sampler is {acc:.2f}, outside the usual "
-                                      "0.15–0.75: the chains may explore the posterior poorly"))
-    tau = post.get("autocorrelation_time")
-    steps = post.get("steps")
-    if isinstance(tau, dict):
-        tau = max((v for v in tau.values() if isinstance(v, (int, float))), default=None)
-    if isinstance(tau, (int, float)) and isinstance(steps, (int, float)) and tau > 0 and steps / tau < 50:
-        out.append(Finding("warning", f"the chains are only {steps / tau:.0f} autocorrelation times long "
-                                      "(at least 50 is the usual rule): run the sampler longer"))
+    ref = post.get("samples")
+    if isinstance(ref, dict) and ref.get("file") and not have_samples:
+        out.append(Finding("warning", f"the posterior samples file '{ref['file']}' named in the parameter file is "
+                                      "missing, changed or unreadable; the σ–ε figure and the bands use the "
+                                      "least-squares covariance instead"))
+    diag = post.get("diagnostics") if isinstance(post.get("diagnostics"), dict) else {}
+    if post.get("converged") is False or diag.get("converged") is False:
+        reasons = list(diag.get("not_converged_because") or [])
+        msg = post.get("convergence_message")
+        detail = "; ".join(map(str, reasons)) or (str(msg) if msg else "")
+        out.append(Finding("warning", "posterior sampling did not converge" + (f" ({detail})" if detail else "")
+                           + ": treat the posterior percentiles and bands as provisional"))
+    acc = diag.get("acceptance_fraction", post.get("acceptance_fraction"))
+    if isinstance(acc, (list, tuple)) and acc:
+        acc = float(np.mean(acc))
+    lo_hi = (diag.get("rules") or {}).get("acceptance_range") or (0.15, 0.75)
+    if isinstance(acc, (int, float)) and not lo_hi[0] <= acc <= lo_hi[1]:
+        out.append(Finding("warning", f"mean acceptance fraction of the sampler is {acc:.2f}, outside "
+                                      f"{lo_hi[0]:g}–{lo_hi[1]:g}: the chains may explore the posterior poorly"))
+    for w in post.get("warnings") or []:
+        out.append(Finding("warning", f"sampling: {w}", "fit"))
     return out
 
 
@@ -84,7 +88,8 @@ def report_findings(record: dict, model=None) -> list[Finding]:
     t_lo, t_hi = (float(x) for x in record["data"]["temperature_range_K"])
     summary = record.get("data", {}).get("summary", {})
 
-    if model is not None:
+    hard_spheres = (record.get("potential") or {}).get("name") == "hs"
+    if model is not None and not hard_spheres:
         ts_lo, ts_hi = model.t_star_range()
         findings.append(Finding("note", f"the collision integrals cover T* = {ts_lo:g}–{ts_hi:g}, that is "
                                         f"{ts_lo * eps:.0f}–{ts_hi * eps:.0f} K for this ε/k; outside the measured "
@@ -94,12 +99,15 @@ def report_findings(record: dict, model=None) -> list[Finding]:
             findings.append(Finding("warning", f"the measured reduced temperatures T* = {t_lo / eps:.3g}–"
                                                f"{t_hi / eps:.3g} reach the edge of the collision-integral range "
                                                f"{ts_lo:g}–{ts_hi:g}"))
+    if model is not None:
         findings += _posterior_findings(record, have_samples=model.samples is not None)
-    if t_lo / eps > HIGH_T_STAR:
+    if not hard_spheres and t_lo / eps > HIGH_T_STAR:
         findings.append(Finding("warning", f"all data lie at T* > {HIGH_T_STAR:g} (T* ≥ {t_lo / eps:.1f}), where "
                                            "the repulsive wall dominates: ε/k is weakly determined and low-"
                                            "temperature predictions are extrapolations in T*"))
-    findings.append(Finding("note", f"measured reduced temperatures T* = kT/ε: {t_lo / eps:.3g} to {t_hi / eps:.3g}"))
+    if not hard_spheres:
+        findings.append(Finding("note", f"measured reduced temperatures T* = kT/ε: {t_lo / eps:.3g} to "
+                                        f"{t_hi / eps:.3g}"))
     molar_mass = float(record["gas"]["molar_mass_kg_per_mol"])
     ratio = float(thermal_wavelength_ratio(t_lo, molar_mass, sigma))
     if ratio > QUANTUM_WARNING_RATIO and "quantum" not in fit_text:

@@ -29,6 +29,8 @@ POTENTIAL_NAMES = {"lj": "Lennard-Jones", "hs": "rigid spheres", "mie": "Mie", "
 def potential_text(entry: dict) -> str:
     """'Lennard-Jones (n = 12, m = 6)' from the record's potential entry."""
     entry = entry or {}
+    if entry.get("label"):
+        return str(entry["label"])
     name = POTENTIAL_NAMES.get(entry.get("name"), str(entry.get("name", "?")))
     shape = entry.get("shape_parameters") or {}
     text = name + (" (" + ", ".join(f"{k} = {v:g}" if isinstance(v, (int, float)) else f"{k} = {v}"
@@ -122,11 +124,11 @@ def chi2_probability(statistics: dict) -> float | None:
 
 def _interval(record, name):
     post = record.get("posterior") or {}
-    pct = (post.get("percentiles") or {}).get(name) if isinstance(post, dict) else None
+    pct = (post.get("parameters") or {}).get(name) if isinstance(post, dict) else None
     if isinstance(pct, dict):
-        lo, hi = pct.get("2.5"), pct.get("97.5")
-        if isinstance(lo, (int, float)) and isinstance(hi, (int, float)):
-            return f"{lo:.5g} – {hi:.5g}", "posterior 2.5–97.5 %"
+        lo, med, hi = pct.get("p2_5"), pct.get("median"), pct.get("p97_5")
+        if all(isinstance(v, (int, float)) for v in (lo, med, hi)):
+            return f"{lo:.5g} – {hi:.5g} (median {med:.5g})", "posterior percentiles 2.5–97.5 %"
     p = record["parameters"][name]
     u = p.get("stderr")
     if u is None or not np.isfinite(u) or not p.get("varied", True):
@@ -208,21 +210,30 @@ def eucken_section(ctx: ReportContext) -> Section | None:
 
 
 def potential_comparison_section(ctx: ReportContext) -> Section | None:
-    """Hook for fits of several potentials: shown when the record has ``potential_comparison``,
-    a list of {"potential", "parameters": {name: value}, "reduced_chi2", "rms_deviation_percent",
-    "note"}."""
-    rows = ctx.record.get("potential_comparison")
+    """Potential shapes fitted to the same data (the record's ``comparison`` rows, see
+    :func:`fitkin.inference.compare.comparison_rows`): parameters, χ²/ν, AIC, BIC, ΔBIC."""
+    rows = ctx.record.get("comparison", ctx.record.get("potential_comparison"))
     if not isinstance(rows, list) or not rows:
         return None
+
+    def est(v):
+        if isinstance(v, (list, tuple)) and len(v) == 2:
+            return format_estimate(float(v[0]), float(v[1]) if v[1] is not None else float("nan"))
+        return f"{v:.5g}" if isinstance(v, (int, float)) else "—"
+
     body = []
     for r in rows:
-        params = ", ".join(f"{LABELS.get(k, k).split(' (')[0]} = {v:.5g}" for k, v in (r.get("parameters") or {}).items()
-                           if isinstance(v, (int, float)))
-        body.append([r.get("potential", "?"), params, _fmt(r.get("reduced_chi2"), 3),
-                     f"{_fmt(r.get('rms_deviation_percent'), 3)} %", r.get("note", "")])
-    return Section("potentials", "Potentials compared",
-                   table(["potential", "parameters", "reduced χ²", "rms deviation", "note"], body,
-                         text_columns=(0, 1, 4)))
+        p = r.get("parameters") or {}
+        shape = ", ".join(f"{LABELS.get(k, k).split(' (')[0]} = {est(v)}" for k, v in p.items()
+                          if k not in ("sigma", "epsilon_over_k"))
+        body.append([r.get("potential", "?"), est(p.get("sigma")), est(p.get("epsilon_over_k")), shape or "—",
+                     _fmt(r.get("reduced_chi2"), 3), _fmt(r.get("aic"), 5), _fmt(r.get("bic"), 5),
+                     _fmt(r.get("delta_bic"), 3), f"{_fmt(r.get('max_abs_deviation_percent'), 3)} %"])
+    html = table(["potential", "σ [Å]", "ε/k [K]", "shape", "reduced χ²", "AIC", "BIC", "ΔBIC", "largest |dev.|"],
+                 body, text_columns=(0, 3))
+    html += ('<p class="small">All shapes fitted to the same data. The lowest BIC is preferred; a ΔBIC below '
+             "about 2 is no real preference, above about 6 a strong one.</p>")
+    return Section("potentials", "Potential shapes compared", html)
 
 
 #: Sections that appear by themselves when the record carries their entry.
