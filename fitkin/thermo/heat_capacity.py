@@ -197,7 +197,7 @@ class TabulatedHeatCapacity(HeatCapacity):
                     "linear": "(7/2) R, the minimum of a linear molecule",
                     "nonlinear": "4 R, the minimum of a non-linear molecule"}[self.geometry]
             raise GasError(f"c_p⁰ table: {c[i]:.4g} J/(mol K) at {t[i]:g} K is below {what} = {floor:.4g} "
-                           "J/(mol K); is the unit right (J/(mol K) vs J/(kg K) or cal/(mol K))?")
+                           "J/(mol K); is the unit right (J/(mol K), not kJ/(mol K), J/(kg K) or cal/(mol K))?")
         from scipy.interpolate import PchipInterpolator
         object.__setattr__(self, "_spline", PchipInterpolator(t, c, extrapolate=False))
 
