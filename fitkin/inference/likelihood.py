@@ -101,6 +101,7 @@ class LogLikelihood:
         self._kinds = [(k, data.mask(k)) for k in data.kinds]
         self._T = np.asarray(data.temperature, dtype=float)
         self._p = np.asarray(data.pressure, dtype=float)
+        self._stencil = _shape_stencil(model)
         self.evaluations = 0
 
     def _calibration(self, given: dict) -> dict:
@@ -163,6 +164,8 @@ class LogLikelihood:
                     return out
                 except OutOfRangeError:
                     pass  # fall through to walker-by-walker evaluation
+        if self._stencil is not None:
+            ok = self._predict_on_stencil(x, ok, out)
         for w in np.flatnonzero(ok):
             theta = dict(zip(self.physical_names, x[w, :len(self.physical_names)]))
             try:
@@ -175,6 +178,50 @@ class LogLikelihood:
             except (OutOfRangeError, FitError):
                 continue
         return out
+
+    def _predict_on_stencil(self, x, ok, out) -> np.ndarray:
+        """Fill ``out`` for walkers whose shape value has a 5-node stencil; return the rest of ``ok``.
+
+        ln(prediction) is interpolated in the shape parameter by 5-point Lagrange weights
+        between the exact grid shapes, each evaluated for all its walkers at once — the same
+        stencil and weights the collision tables use for ln Ω (see fitkin.collision.tables),
+        so the two agree to the interpolation error (checked in the tests).
+        """
+        name, step, origin, lo_k, hi_k = self._stencil
+        j = self.physical_names.index(name)
+        k = (x[:, j] - origin) / step
+        use = ok & (k > lo_k) & (k <= hi_k)
+        idx = np.flatnonzero(use)
+        if not idx.size:
+            return ok
+        k0 = np.clip(np.floor(k[idx]).astype(int) - 2, lo_k, hi_k - 4)
+        nodes = k0[:, None] + np.arange(5)[None, :]
+        kk = k[idx][:, None]
+        weights = np.ones((idx.size, 5))
+        for a in range(5):
+            for b in range(5):
+                if a != b:
+                    weights[:, a] *= (kk[:, 0] - nodes[:, b]) / (nodes[:, a] - nodes[:, b])
+        log_pred = np.zeros((idx.size, len(self.y)))
+        good = np.ones(idx.size, dtype=bool)
+        tmin, tmax = self._T.min(), self._T.max()
+        for node in np.unique(nodes):
+            rows, cols = np.nonzero(nodes == node)
+            tm = self.model.transport({**{n: 0.0 for n in self.model.free_shape}, name: origin + node * step})
+            t_lo, t_hi = tm.t_star_range
+            e = x[idx[rows], 1]
+            inside = (tmin / e >= t_lo) & (tmax / e <= t_hi)
+            good[rows[~inside]] = False
+            rows, cols = rows[inside], cols[inside]
+            if not rows.size:
+                continue
+            pred = self._flat(tm, x[idx[rows], 0] * ANGSTROM, x[idx[rows], 1], rows.size)
+            log_pred[rows] += weights[rows, cols][:, None] * np.log(pred)
+        out[idx[good]] = np.exp(log_pred[good])
+        self.evaluations += int(good.sum())
+        rest = ok.copy()
+        rest[idx] = False
+        return rest
 
     def _factors(self, x) -> tuple[np.ndarray, np.ndarray]:
         """(walkers, n) calibration factors and (walkers, n) total σ_i²."""
@@ -227,6 +274,23 @@ class LogLikelihood:
             d["degrees_of_freedom"] = self.nu
             d["reference"] = "Lange, Little & Taylor, J. Am. Stat. Assoc. 84, 881 (1989)"
         return d
+
+
+def _shape_stencil(model: ForwardModel):
+    """(name, step, origin, lowest k, highest k) of the shape grid the collision tables
+    interpolate on, for one free shape parameter of a Mie or exp-6 potential; else None."""
+    if len(model.free_shape) != 1:
+        return None
+    from ..collision import tables
+    from ..potentials import ExpSix, Mie
+    name, pot = model.free_shape[0], model.potential
+    if isinstance(pot, Mie) and name == "n" and type(pot) is Mie:
+        return name, tables.MIE_N_STEP, float(pot.m), 1, 10**6
+    if isinstance(pot, ExpSix) and name == "alpha":
+        lo, hi = tables.EXP6_ALPHA_GRID
+        step = tables.EXP6_ALPHA_STEP
+        return name, step, 0.0, int(round(lo / step)), int(round(hi / step))
+    return None
 
 
 def source_offsets(data: FitData, prediction: np.ndarray) -> dict:
