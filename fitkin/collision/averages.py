@@ -117,6 +117,16 @@ def compute_collision_integrals(potential: Potential, T_star, *, l_max: int = 6,
     Raises
     ------
     OutOfRangeError : a temperature outside ``t_star_range``.
+
+    Examples
+    --------
+    Bird, Stewart & Lightfoot, Transport Phenomena, 2nd ed. (2002), Table E.2: for
+    Lennard-Jones at T* = 1, Ω_μ = Ω(2,2)* = 1.593 and Ω_D = Ω(1,1)* = 1.440.
+
+    >>> from fitkin.potentials import LennardJones
+    >>> om = compute_collision_integrals(LennardJones(), [1.0], l_max=2, s_max=2)
+    >>> round(float(om[1, 1, 0]), 3), round(float(om[0, 0, 0]), 3)
+    (1.593, 1.44)
     """
     T = np.atleast_1d(np.asarray(T_star, dtype=float))
     lo, hi = t_star_range

@@ -153,7 +153,7 @@ class ExpSix(Potential):
 
     Parameters
     ----------
-    alpha : steepness of the exponential repulsion, 6 < alpha ≤ 40 (typically 12–16).
+    alpha : steepness of the exponential repulsion, 9 ≤ alpha ≤ 40 (typically 12–16).
 
     References
     ----------
@@ -165,8 +165,10 @@ class ExpSix(Potential):
 
     def __init__(self, alpha: float = 14.0):
         alpha = float(alpha)
-        if not (math.isfinite(alpha) and 6.0 < alpha <= 40.0):
-            raise PotentialError(f"exp-6 steepness alpha must be in (6, 40], got {alpha:g}")
+        if not (math.isfinite(alpha) and 9.0 <= alpha <= 40.0):
+            raise PotentialError(
+                f"exp-6 steepness alpha must be between 9 and 40, got {alpha:g} (below about 8.1 "
+                "the Mason-Rice form has no zero crossing; at 9 its inner maximum is only 3 ε)")
         self.alpha = alpha
         self._pref = 1.0 / (1.0 - 6.0 / alpha)
         # inner maximum: dU/dx = 0  <=>  alpha(1 - x) + 7 ln x = 0 on (0, 1)
