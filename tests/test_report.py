@@ -8,12 +8,12 @@ from html.parser import HTMLParser
 import numpy as np
 import pytest
 
-from fitkin.errors import OutputExistsError
+from fitkin.errors import OutputExistsError, ParameterFileError
 from fitkin.inference.fitdata import FitData
 from fitkin.inference.leastsq import fit_least_squares
-from fitkin.io.parameter_file import read_parameter_file, result_to_record, write_parameter_file
+from fitkin.io.parameter_file import result_to_record, write_parameter_file
 from fitkin.measurements import MeasuredTable, PropertySeries
-from fitkin.report import build_report, write_report
+from fitkin.report import build_report, report_from_parameter_file, write_report
 from fitkin.report.bands import RecordModel
 from fitkin.report.checks import report_findings
 from fitkin.report.sections import Section
@@ -149,9 +149,11 @@ def test_never_overwrites_without_force(record, written):
 
 def test_regenerates_from_parameter_file(record, tmp_path):
     p = write_parameter_file(record, tmp_path / "parameters.json")
-    rec = read_parameter_file(p)
-    out = write_report(rec, tmp_path, record_path=p)
+    out = report_from_parameter_file(p)
+    assert out == tmp_path / "report.html"
     assert str(p) in out.read_text(encoding="utf-8")
+    with pytest.raises(ParameterFileError):
+        report_from_parameter_file(tmp_path / "missing.json")
 
 
 def test_viscosity_only_fit_marks_conductivity_as_prediction(tmp_path):

@@ -9,8 +9,8 @@ data), :mod:`.checks` (the report's own warnings), :mod:`.figures`, :mod:`.secti
 :mod:`.narrative` and :mod:`.html` (the page), :mod:`.style` (colours, CSS).
 """
 from .comparison import ElementaryComparison, elementary_comparison
-from .html import REPORT_NAME, build_report, write_report
+from .html import REPORT_NAME, build_report, report_from_parameter_file, write_report
 from .sections import ReportContext, Section
 
-__all__ = ["write_report", "build_report", "elementary_comparison", "ElementaryComparison", "ReportContext",
+__all__ = ["write_report", "report_from_parameter_file", "build_report", "elementary_comparison", "ElementaryComparison", "ReportContext",
            "Section", "REPORT_NAME"]

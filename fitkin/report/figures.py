@@ -210,7 +210,7 @@ def joint_figure(model: RecordModel) -> Figure:
     record = model.record
     p = record["parameters"]
     mean = np.array([p["sigma"]["value"], p["epsilon_over_k"]["value"]])
-    fig = _new(4.4)
+    fig = Figure(figsize=(5.8, 4.2), layout="constrained")
     ax = fig.subplots()
     st.style_axes(ax)
     handles = []

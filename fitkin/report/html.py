@@ -25,7 +25,7 @@ from .narrative import elementary_section, provenance_section
 from .sections import (OPTIONAL_SECTIONS, LABELS, UNIT_TEXT, ReportContext, Section, chi2_probability,
                        figure_html, parameters_section, potential_text, statistics_section)
 
-__all__ = ["write_report", "build_report", "render_page", "REPORT_NAME", "FIGURE_FOLDER", "CAUTION"]
+__all__ = ["write_report", "report_from_parameter_file", "build_report", "render_page", "REPORT_NAME", "FIGURE_FOLDER", "CAUTION"]
 
 REPORT_NAME = "report.html"
 FIGURE_FOLDER = "figures"
@@ -51,9 +51,12 @@ def _prepare(record: dict, record_path=None, pressure: float = 101325.0) -> Repo
 def _figures(ctx: ReportContext) -> None:
     rec, model = ctx.record, ctx.model
     summary = rec.get("data", {}).get("summary", {})
+    has_u = any(isinstance(r.get("uncertainty_SI"), (int, float)) for r in rec.get("residuals") or [])
+    bars = ("bars ±u(measured)" if has_u else
+            "no ±u bars, because this parameter file does not store the per-point uncertainties")
     for kind, curve in ctx.curves.items():
         sym, unit, _ = st.DISPLAY[kind]
-        what = "measured points by source with ±u bars where stated" if kind in summary else "no measurements"
+        what = f"measured points by source ({bars})" if kind in summary else "no measurements"
         band = ("posterior samples" if curve.source == "posterior" else "the least-squares covariance"
                 if curve.source == "covariance" else "nothing (no covariance)")
         ctx.add_figure(f"fit_{kind}", fg.fit_figure(model, kind, curve),
@@ -62,8 +65,8 @@ def _figures(ctx: ReportContext) -> None:
                        f"extrapolated. Below: the band's half-widths relative to the fit.")
     if rec.get("residuals"):
         ctx.add_figure("deviations", fg.deviation_figure(rec, ctx.curves),
-                       "Deviations 100 (measured − fit)/fit against temperature, one marker per source, bars "
-                       "±u(measured) where stated; shaded: the fit's 95 % band.")
+                       f"Deviations 100 (measured − fit)/fit against temperature, one marker per source ({bars}); "
+                       "shaded: the fit's 95 % band.")
     sampled = bool(model.samples)
     ctx.add_figure("sigma_epsilon", fg.joint_figure(model),
                    "Joint distribution of σ and ε/k: " + ("posterior samples with their 68 % and 95 % regions; "
@@ -250,3 +253,17 @@ def write_report(record: dict, out_dir, *, force: bool = False, record_path=None
         write_bytes_atomic(folder / f"{name}.png", ctx.png_of(name), force=force)
         write_bytes_atomic(folder / f"{name}.svg", fg.figure_bytes(fig, "svg"), force=force)
     return write_text_atomic(target, html, force=force)
+
+
+def report_from_parameter_file(parameters, out_dir=None, *, force: bool = False,
+                               pressure: float = 101325.0) -> Path:
+    """Regenerate the report of a saved fit without refitting (what ``fitkin report`` does).
+
+    ``out_dir`` defaults to the parameter file's folder. Raises
+    :class:`fitkin.errors.ParameterFileError` for an unreadable file.
+    """
+    from ..io.parameter_file import read_parameter_file
+    path = Path(parameters)
+    record = read_parameter_file(path)
+    return write_report(record, path.parent if out_dir is None else out_dir, force=force, record_path=path,
+                        pressure=pressure)

@@ -29,8 +29,9 @@ POTENTIAL_NAMES = {"lj": "Lennard-Jones", "hs": "rigid spheres", "mie": "Mie", "
 def potential_text(entry: dict) -> str:
     """'Lennard-Jones (n = 12, m = 6)' from the record's potential entry."""
     entry = entry or {}
-    if entry.get("label"):
-        return str(entry["label"])
+    label = entry.get("label")
+    if label and label not in POTENTIAL_NAMES:
+        return str(label)
     name = POTENTIAL_NAMES.get(entry.get("name"), str(entry.get("name", "?")))
     shape = entry.get("shape_parameters") or {}
     text = name + (" (" + ", ".join(f"{k} = {v:g}" if isinstance(v, (int, float)) else f"{k} = {v}"
@@ -104,8 +105,9 @@ def figure_html(ctx: ReportContext, name: str) -> str:
         return ""
     caption = ctx.figures[name][1]
     data = base64.b64encode(ctx.png_of(name)).decode("ascii")
-    width = int(ctx.figures[name][0].get_figwidth() * 122)
-    return (f'<figure id="fig-{escape(name)}"><img alt="{escape(caption)}" style="max-width:{width}px" '
+    inches = ctx.figures[name][0].get_figwidth()
+    size = f' style="max-width:{int(inches * 130)}px"' if inches < st.FIGURE_WIDTH else ""
+    return (f'<figure id="fig-{escape(name)}"><img alt="{escape(caption)}"{size} '
             f'src="data:image/png;base64,{data}">'
             f"<figcaption>{escape(caption)}</figcaption></figure>")
 
