@@ -196,13 +196,14 @@ def test_posterior_samples_are_used(record, tmp_path):
     rec = _with_posterior(record, tmp_path, converged=False,
                           diagnostics={"converged": False, "not_converged_because": ["chains too short"],
                                        "acceptance_fraction": 0.05},
-                          parameters={"sigma": {"p2_5": 3.63, "median": 3.646, "p97_5": 3.66}})
+                          parameters={"sigma": {"p2_5": 3.63, "median": 3.70, "p97_5": 3.75}})
     html, ctx = build_report(rec, record_path=tmp_path / "parameters.json")
     assert ctx.curves["viscosity"].source == "posterior"
     assert "posterior samples" in ctx.figures["sigma_epsilon"][1]
     texts = " ".join(f.text for f in ctx.findings if f.level == "warning")
     assert "did not converge (chains too short)" in texts and "acceptance fraction" in texts
     assert "posterior percentiles" in html
+    assert "posterior median of sigma" in texts
 
 
 def test_missing_samples_fall_back_to_covariance(record, tmp_path):

@@ -72,6 +72,13 @@ def _posterior_findings(record: dict, have_samples: bool) -> list[Finding]:
                                       f"{lo_hi[0]:g}–{lo_hi[1]:g}: the chains may explore the posterior poorly"))
     for w in post.get("warnings") or []:
         out.append(Finding("warning", f"sampling: {w}", "fit"))
+    for name, q in (post.get("parameters") or {}).items():
+        p = (record.get("parameters") or {}).get(name) or {}
+        med, value, u = (q or {}).get("median"), p.get("value"), p.get("stderr")
+        if all(isinstance(v, (int, float)) for v in (med, value, u)) and u > 0 and abs(med - value) > 2 * u:
+            out.append(Finding("warning", f"the posterior median of {name} ({med:.5g}) lies {abs(med - value) / u:.1f} "
+                                          f"standard uncertainties from the least-squares value ({value:.5g}): "
+                                          "check that both come from the same data and model"))
     return out
 
 

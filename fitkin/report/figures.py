@@ -245,7 +245,7 @@ def joint_figure(model: RecordModel) -> Figure:
     su, eu = p["sigma"].get("stderr"), p["epsilon_over_k"].get("stderr")
     ax.errorbar([mean[0]], [mean[1]], xerr=[su or 0], yerr=[eu or 0], color=st.INK, marker="o", ms=4,
                 capsize=3, lw=1.0, zorder=5)
-    handles.append(Line2D([], [], color=st.INK, marker="o", ms=4, lw=1.0, label="estimate ± standard uncertainty"))
+    handles.append(Line2D([], [], color=st.INK, marker="o", ms=4, lw=1.0, label="least-squares estimate ± u"))
     truth = record.get("demo_truth")
     if isinstance(truth, dict) and {"sigma", "epsilon_over_k"} <= set(truth):
         ax.plot([truth["sigma"]], [truth["epsilon_over_k"]], marker="*", ms=11, color=st.SOURCE_COLOURS[4],
