@@ -201,3 +201,46 @@ def test_internal_energy_transport_interface():
     # Eucken-type models work with a table that has no geometry
     k = InternalEnergyTransport("eucken").conductivity(300.0, 1.5e-5, None, 0.044, no_geometry, 195.2)
     assert float(k) == pytest.approx(1.5e-5 / 0.044 * (3.75 * R + (39.0 - 2.5 * R)), rel=1e-3)
+
+
+def test_end_to_end_with_the_transport_model():
+    # σ = 3.656 Å, ε/k = 98.94 K from the Lemmon & Jacobsen (2004) dilute N₂ viscosity
+    # (from memory): with fitkin's own third-order Chapman–Enskog μ and k_tr and Mason–Monchick,
+    # N₂'s reference k (CoolProp) is reproduced within 2 % over 220–700 K.
+    from fitkin.species import Gas
+    from fitkin.theory.internal import transport_with_internal_energy
+    from fitkin.theory.transport import TransportModel
+    gas = Gas.from_formula("N2", heat_capacity=N2["hc"])
+    T = np.array([220.0, 300.0, 500.0, 700.0])
+    _, k_ref = _reference("Nitrogen", T)
+    out = transport_with_internal_energy(TransportModel(order=3), InternalEnergyTransport(), T, gas,
+                                         3.656e-10, 98.94, {"z_rot_inf": N2_Z_ROT_INF})
+    assert np.max(np.abs(out["conductivity"] / k_ref - 1)) < 0.02
+    assert out["delta_star"] == 0.0
+    assert np.all(out["rho_D"] / out["viscosity"] > 1.25) and np.all(out["rho_D"] / out["viscosity"] < 1.40)
+    with pytest.raises(GasError, match="heat capacity"):
+        transport_with_internal_energy(TransportModel(order=1, collision="neufeld"), InternalEnergyTransport(),
+                                       T, Gas.from_formula("N2"), 3.656e-10, 98.94)
+
+
+def test_end_to_end_polar_path_matches_the_corrected_first_approximation():
+    # The polar path must equal the first approximation with Brokaw-corrected integrals
+    # (Brokaw 1969) when the transport model is itself first order.
+    from fitkin.species import DEBYE, Gas
+    from fitkin.theory.internal import transport_with_internal_energy
+    from fitkin.theory.polar import stockmayer_omega
+    from fitkin.theory.transport import TransportModel
+    water = Gas.from_formula("H2O", dipole_moment=1.85 * DEBYE,
+                             heat_capacity=RigidRotorHarmonicOscillator("nonlinear", (3657.0, 1595.0, 3756.0)))
+    tm = TransportModel(order=1, collision="neufeld")
+    T = np.array([400.0, 600.0])
+    out = transport_with_internal_energy(tm, InternalEnergyTransport("eucken"), T, water, 2.52e-10, 775.0)
+    omega = stockmayer_omega(tm.omega, out["delta_star"])
+    ts = T / 775.0
+    assert out["delta_star"] == pytest.approx(1.0, abs=0.01)
+    assert out["viscosity"] == pytest.approx(ce.viscosity_first(T, water.molar_mass, 2.52e-10, omega(2, 2, ts)))
+    assert out["rho_D"] == pytest.approx(ce.density_self_diffusion_first(T, water.molar_mass, 2.52e-10,
+                                                                         omega(1, 1, ts)))
+    plain = transport_with_internal_energy(tm, InternalEnergyTransport("eucken"), T, water, 2.52e-10, 775.0,
+                                           polar=False)
+    assert np.all(plain["viscosity"] > out["viscosity"])
