@@ -101,3 +101,21 @@ def test_bad_arguments():
         deflection_angle(LennardJones(), 1.0, -1.0)
     with pytest.raises(PotentialError):
         transport_cross_sections(LennardJones(), [1.0], l_max=0)
+
+
+def test_exp6_hard_core_contact_deflection():
+    # Source: HCB (1954) eq. (8.2-4) with the turning point at the Mason-Rice hard core
+    # (J. Chem. Phys. 22, 522 (1954)): above the inner maximum a head-on-ish collision
+    # reflects at r_core, χ = π - 2b ∫_{r_core}^∞ dr / (r² √F), F(r_core) > 0; by scipy.quad
+    p = ExpSix(12.0)
+    rc = p.hard_core_star
+    E = 3.0 * p.u_max_star
+    g_core = rc ** 2 * (1 - p.u_max_star / E)
+    for b in (0.05, 0.5 * np.sqrt(g_core), 0.95 * np.sqrt(g_core)):
+        F = lambda r: 1 - b * b / r / r - p.reduced_energy(r) / E  # noqa: E731
+        ref, _ = quad(lambda y: 1 / np.sqrt(F(rc / y)), 0, 1, limit=400, epsabs=1e-13, epsrel=1e-13)
+        assert deflection_angle(p, b, E) == pytest.approx(np.pi - 2 * b / rc * ref, abs=1e-9)
+    # just outside the contact range the soft turning point takes over continuously
+    b_edge = np.sqrt(g_core)
+    chi = deflection_angle(p, b_edge * np.array([1 - 1e-7, 1 + 1e-7]), E)
+    assert abs(chi[0] - chi[1]) < 1e-3

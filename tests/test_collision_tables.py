@@ -86,7 +86,10 @@ def test_interpolation_error_at_midpoints(lj_table):
     mid = np.exp(0.5 * (ln[1:] + ln[:-1]))[::4]
     direct = compute_collision_integrals(LennardJones(), mid, t_star_range=(0.05, 2000.0))
     interp = np.array([[lj_table.omega(l, s, mid) for s in range(1, 9)] for l in range(1, 7)])
-    assert np.abs(interp / direct - 1).max() < 1e-5
+    actual = np.abs(interp / direct - 1)
+    assert actual.max() < 1e-5
+    estimate = np.array([[lj_table.error_estimate(l, s, mid) for s in range(1, 9)] for l in range(1, 7)])
+    assert np.all(actual <= estimate + 2e-9)
 
 
 def test_error_estimate_covers_actual_error(lj_table):

@@ -23,7 +23,7 @@ import numpy as np
 __all__ = ["ALGORITHM_VERSION", "cache_dir", "cache_path", "load_arrays", "save_arrays"]
 
 #: Bump whenever a change to the quadrature or table layout changes the numbers.
-ALGORITHM_VERSION = 1
+ALGORITHM_VERSION = 2
 
 
 def _fitkin_version() -> str:
