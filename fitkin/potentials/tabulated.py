@@ -224,8 +224,10 @@ class Tabulated(Potential):
         split = lambda s: [c.strip() for c in re.split(r"[,;\t]|\s{2,}", s.strip()) if c.strip()]  # noqa: E731
         header_row, header = rows[0]
         cols = split(header)
-        if len(cols) != 2:
-            cols = [c for c in re.split(r"\s+(?![^\[(]*[\])])", header.strip()) if c]
+        if len(cols) != 2:  # single spaces between columns: pick out 'label [unit]' pairs
+            pairs = re.findall(r"([^\s\[\]()][^\[\]()]*?)\s*[\[(]([^\])]+)[\])]", header)
+            if len(pairs) == 2:
+                cols = [f"{a.strip()} [{b.strip()}]" for a, b in pairs]
         if len(cols) != 2:
             raise InputError(f"expected a header with two columns (distance and energy), found {len(cols)}",
                              file=str(path), row=header_row, hint="e.g. 'r [Å], U [K]'")
