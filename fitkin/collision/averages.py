@@ -21,8 +21,8 @@ from math import lgamma
 
 import numpy as np
 
-from fitkin.collision.scattering import (ScatteringResolution, _gauss01, orbiting_point,
-                                         transport_cross_sections)
+from fitkin.collision.orbits import orbiting_point
+from fitkin.collision.scattering import ScatteringResolution, _gauss01, transport_cross_sections
 from fitkin.errors import OutOfRangeError
 from fitkin.potentials import Potential
 
