@@ -36,7 +36,7 @@ from scipy.interpolate import CubicSpline
 from fitkin.collision import cache as _cache
 from fitkin.collision.averages import compute_collision_integrals
 from fitkin.collision.scattering import ScatteringResolution
-from fitkin.errors import OutOfRangeError
+from fitkin.errors import OutOfRangeError, PotentialError
 from fitkin.potentials import ExpSix, Mie, Potential
 
 __all__ = [
@@ -105,6 +105,11 @@ class CollisionTable:
         wall = getattr(self.potential, "max_energy_star", None)
         if wall is not None:
             self._hi = min(self._hi, float(wall) / WALL_ENERGY_FACTOR)
+            if self._hi <= self._lo * 2.0:
+                raise PotentialError(
+                    f"{self.potential.describe()}: the table's repulsive wall reaches only "
+                    f"U = {float(wall):.3g} ε, too low for collision integrals even at "
+                    f"T* = {2 * self._lo:g}; extend the table to shorter distances")
         self._x_lo = self._x0 - 1e-12
         self._x_hi = float(np.log(self._hi)) + 1e-12
 
