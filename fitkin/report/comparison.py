@@ -152,7 +152,9 @@ def _points(record: dict):
     out = {}
     for r in res:
         out.setdefault(r["property"], []).append(r)
-    return {k: sorted(v, key=lambda r: r["T_K"]) for k, v in out.items()}
+    order = ("viscosity", "conductivity")
+    return {k: sorted(out[k], key=lambda r: r["T_K"]) for k in sorted(out, key=lambda k: (k not in order,
+                                                                                           order.index(k) if k in order else 0))}
 
 
 def elementary_comparison(record: dict, pressure: float = 101325.0, model=None,

@@ -240,8 +240,12 @@ def joint_figure(model: RecordModel) -> Figure:
         handles += [Line2D([], [], color=st.FIT, lw=1.6, label="68.3 % joint region (1σ-equivalent)"),
                     Line2D([], [], color=st.FIT, lw=1.0, ls="--", label="95.4 % joint region (2σ-equivalent)")]
     else:
-        ax.text(0.5, 0.5, "no covariance or samples in the parameter file", transform=ax.transAxes,
-                ha="center", color=st.MUTED)
+        fixed = not p["epsilon_over_k"].get("varied", True)
+        ax.text(0.5, 0.5, "ε/k was held fixed, so there is no joint distribution:\nonly σ was fitted" if fixed
+                else "no usable covariance or samples in the parameter file", transform=ax.transAxes,
+                ha="center", va="center", color=st.MUTED, fontsize=10)
+        ax.set_axis_off()
+        return fig
     su, eu = p["sigma"].get("stderr"), p["epsilon_over_k"].get("stderr")
     ax.errorbar([mean[0]], [mean[1]], xerr=[su or 0], yerr=[eu or 0], color=st.INK, marker="o", ms=4,
                 capsize=3, lw=1.0, zorder=5)
@@ -259,16 +263,22 @@ def joint_figure(model: RecordModel) -> Figure:
     return fig
 
 
-def eucken_axes(ax, T, factor, *, label: str, monatomic: bool = True) -> None:
+def eucken_axes(ax, T, factor, *, label: str, monatomic: bool = True, fitted=None,
+                fitted_label: str = "Chapman–Enskog fit") -> None:
     """Eucken factor f = kM/(μ c_v) against T on ``ax``, with the reference lines 1 and 5/2.
 
     A hook for the polyatomic section as well: pass ``monatomic=False`` to label the 5/2 line
-    as the translational (monatomic) value.
+    as the translational (monatomic) value. ``fitted`` (same length as T) draws the model's
+    factor as a line.
     """
     st.style_axes(ax)
+    if fitted is not None:
+        order = np.argsort(T)
+        ax.plot(np.asarray(T)[order], np.asarray(fitted)[order], color=st.SOURCE_COLOURS[1], lw=1.4,
+                label=fitted_label)
     ax.plot(T, factor, ls="none", marker="o", ms=5, mfc="white", mec=st.SOURCE_COLOURS[1], mew=1.3, label=label)
     ce = "Chapman–Enskog, monatomic: 5/2" if monatomic else "translational (monatomic) value 5/2"
-    ax.axhline(EUCKEN_CHAPMAN_ENSKOG, color=st.FIT, lw=1.2, label=ce)
+    ax.axhline(EUCKEN_CHAPMAN_ENSKOG, color=st.FIT, lw=1.0, ls=":", label=ce)
     ax.axhline(EUCKEN_ELEMENTARY, color=st.MUTED, lw=1.0, ls="--", label="elementary theory: 1")
     ax.set_ylim(0, max(3.2, float(np.nanmax(factor)) * 1.15 if np.size(factor) else 3.2))
     ax.set_xlabel("T [K]")
@@ -294,13 +304,10 @@ def elementary_figure(comp: ElementaryComparison) -> Figure:
                 mew=1.1, label=f"{sym}: measured / elementary")
         ax.plot(c.temperature[order], (c.fitted / c.elementary_fixed_diameter)[order], color=col, lw=0.9,
                 ls="--", label=f"{sym}: fit / elementary with one fixed d")
-        ax.axhline(c.hard_sphere_ratio, color=col, lw=0.9, ls=":")
         frac = "15π/32" if kind == "viscosity" else "75π/64"
-        ax.annotate(f"rigid spheres {frac} = {c.hard_sphere_ratio:.3f}", (0.02, c.hard_sphere_ratio + 0.04),
-                    xycoords=("axes fraction", "data"), ha="left", va="bottom", fontsize=7.5, color=col)
-    ax.axhline(1.0, color=st.MUTED, lw=0.9, ls="--")
-    ax.annotate("elementary theory = 1", (0.02, 1.04), xycoords=("axes fraction", "data"), ha="left",
-                va="bottom", fontsize=7.5, color=st.MUTED)
+        ax.axhline(c.hard_sphere_ratio, color=col, lw=0.9, ls=":",
+                   label=f"{sym}: rigid spheres {frac} = {c.hard_sphere_ratio:.3f}")
+    ax.axhline(1.0, color=st.MUTED, lw=0.9, ls="-.", label="elementary theory itself = 1")
     top = max([4.4] + [1.1 * float(np.max(c.fitted / c.elementary_fixed_diameter))
                        for c in comp.properties.values()])
     ax.set_ylim(0, top)
@@ -311,8 +318,9 @@ def elementary_figure(comp: ElementaryComparison) -> Figure:
     ax.set_ylabel("ratio to ⅓ρv̄λ or ⅓C_v v̄λ")
     ax.set_title("(a) against elementary theory", fontsize=9, loc="left", color=st.INK)
     ax.legend(fontsize=7, frameon=False, loc="upper center", bbox_to_anchor=(0.5, -0.16), ncol=2)
+    ax.margins(x=0.02)
     if has_k:
         eucken_axes(axes[1], comp.eucken_temperature, comp.eucken_measured,
-                    label="measured k with fitted μ")
+                    label="measured k with fitted μ", fitted=comp.eucken_fitted, fitted_label="fitted k and μ")
         axes[1].set_title("(b) Eucken factor", fontsize=9, loc="left", color=st.INK)
     return fig

@@ -23,7 +23,7 @@ from .checks import report_findings
 from .comparison import elementary_comparison
 from .narrative import elementary_section, provenance_section
 from .sections import (OPTIONAL_SECTIONS, LABELS, UNIT_TEXT, ReportContext, Section, chi2_probability,
-                       figure_html, parameters_section, potential_text, statistics_section)
+                       figure_html, parameters_section, potential_text, probability_text, statistics_section)
 
 __all__ = ["write_report", "report_from_parameter_file", "build_report", "render_page", "REPORT_NAME", "FIGURE_FOLDER", "CAUTION"]
 
@@ -68,12 +68,15 @@ def _figures(ctx: ReportContext) -> None:
                        f"Deviations 100 (measured − fit)/fit against temperature, one marker per source ({bars}); "
                        "shaded: the fit's 95 % band.")
     sampled = bool(model.samples)
-    ctx.add_figure("sigma_epsilon", fg.joint_figure(model),
-                   "Joint distribution of σ and ε/k: " + ("posterior samples with their 68 % and 95 % regions; "
-                                                           "dotted: the least-squares 68 % region."
-                                                           if sampled else
-                                                           "joint 68.3 % and 95.4 % regions of the least-squares "
-                                                           "covariance (Gaussian approximation); cross: ±u of each."))
+    if not rec["parameters"]["epsilon_over_k"].get("varied", True):
+        caption = "ε/k was held fixed, so σ alone was fitted and there is no joint distribution to show."
+    elif sampled:
+        caption = ("Joint distribution of σ and ε/k: posterior samples with their 68 % and 95 % regions; dotted: "
+                   "the least-squares 68 % region; cross: least-squares estimate ± u.")
+    else:
+        caption = ("Joint distribution of σ and ε/k: 68.3 % and 95.4 % joint regions of the least-squares covariance "
+                   "(Gaussian approximation); cross: estimate ± u of each.")
+    ctx.add_figure("sigma_epsilon", fg.joint_figure(model), caption)
     if ctx.comparison is not None and ctx.comparison.properties:
         ctx.add_figure("elementary", fg.elementary_figure(ctx.comparison),
                        "(a) Measured values and the Chapman–Enskog fit divided by the elementary estimates "
@@ -93,10 +96,14 @@ def _summary(ctx: ReportContext) -> Section:
     cards = []
     for name in ("sigma", "epsilon_over_k"):
         u = p[name].get("stderr")
-        cards.append((LABELS[name], f"{format_estimate(p[name]['value'], u if u is not None else float('nan'))} "
-                                    f"{UNIT_TEXT.get(p[name].get('unit'), '')}",
-                      "standard uncertainty u" + (f"; correlation r = {rho:+.3f}" if rho is not None and
-                                                  name == "epsilon_over_k" else "")))
+        varied = p[name].get("varied", True)
+        sub = ("standard uncertainty u" + (f"; correlation r = {rho:+.3f}" if rho is not None and
+                                           name == "epsilon_over_k" else "")) if varied else "held fixed, not fitted"
+        value = (f"{format_estimate(p[name]['value'], u if (u is not None and varied) else float('nan'))} "
+                 f"{UNIT_TEXT.get(p[name].get('unit'), '')}")
+        if not varied and (r.get("potential") or {}).get("name") == "hs":
+            value, sub = "not fitted", "rigid spheres have no energy scale"
+        cards.append((LABELS[name], value, sub))
     for name, q in p.items():
         if name not in ("sigma", "epsilon_over_k") and q.get("varied"):
             cards.append((LABELS.get(name, name), format_estimate(q["value"], q.get("stderr") or float("nan")),
@@ -104,7 +111,7 @@ def _summary(ctx: ReportContext) -> Section:
     prob = chi2_probability(s)
     red = s.get("reduced_chi2")
     cards.append(("reduced χ²", f"{red:.3g}" if red is not None else "—",
-                  f"{s.get('dof', '—')} degrees of freedom" + (f"; P = {prob:.2g}" if prob is not None else "")))
+                  f"{s.get('dof', '—')} degrees of freedom" + (f"; P {_eq(prob)}" if prob is not None else "")))
     cards.append(("rms deviation", f"{s.get('rms_deviation_percent', float('nan')):.3g} %",
                   f"largest {s.get('max_abs_deviation_percent', float('nan')):.3g} %; {s.get('points', '?')} points"))
     n_warn = sum(f.level == "warning" for f in ctx.findings)
@@ -124,19 +131,24 @@ def _summary(ctx: ReportContext) -> Section:
     return Section("summary", "Summary", html)
 
 
+def _eq(prob: float) -> str:
+    text = probability_text(prob)
+    return text if text.startswith("<") else f"= {text}"
+
+
 def _verdict(s: dict, prob, n_warn: int) -> str:
     if not s.get("optimiser_success", True):
         return '<b class="warn">The optimiser did not converge:</b> do not use these parameters.'
     if prob is not None:
         if prob < 1e-3:
             text = (f'<b class="warn">The fit is not consistent with the stated uncertainties</b> '
-                    f"(P(χ²) = {prob:.1e}): the uncertainties are too small or the potential shape cannot "
+                    f"(P(χ²) {_eq(prob)}): the uncertainties are too small or the potential shape cannot "
                     "follow the data.")
         elif s.get("reduced_chi2", 1) < 0.2:
             text = ('<b class="warn">The deviations are much smaller than the stated uncertainties</b>: '
                     "the uncertainties look overstated, so the parameter uncertainties are too.")
         else:
-            text = f'<b class="ok">The fit is consistent with the stated uncertainties</b> (P(χ²) = {prob:.2g}).'
+            text = f'<b class="ok">The fit is consistent with the stated uncertainties</b> (P(χ²) {_eq(prob)}).'
     else:
         text = ("No uncertainties were stated, so χ² cannot test the fit; the parameter uncertainties come from "
                 "the scatter of the data about the fit.")
@@ -196,8 +208,8 @@ def render_page(ctx: ReportContext, sections: list[Section]) -> str:
     gas = (r.get("gas") or {}).get("name", "gas")
     pot = potential_text(r.get("potential"))
     made = _dt.datetime.now(_dt.timezone.utc).strftime("%Y-%m-%d %H:%M UTC")
-    nav = "".join(f'<a href="#{escape(s.id)}">{escape(s.title)}</a>' for s in sections[1:]) + \
-        '<a href="#caution">Caution</a>'
+    nav = " ".join(f'<a href="#{escape(s.id)}">{escape(s.title)}</a>' for s in sections[1:]) + \
+        ' <a href="#caution">Caution</a>'
     body = []
     for s in sections:
         cls = ' class="summary"' if s.id == "summary" else ""
@@ -211,7 +223,7 @@ def render_page(ctx: ReportContext, sections: list[Section]) -> str:
         f"<meta name=\"generator\" content=\"fitkin {escape(__version__)}\">"
         f"<title>fitkin fit report: {escape(gas)}</title><style>{st.PAGE_CSS}</style></head><body><main>"
         f'<header class="top"><h1>Fit report: {escape(gas)}</h1>'
-        f"<p>{escape(pot)} potential, Chapman–Enskog order {escape(str((r.get('theory') or {}).get('sonine_order')))}"
+        f"<p>Potential: {escape(pot)} · Chapman–Enskog order {escape(str((r.get('theory') or {}).get('sonine_order')))}"
         f" · fit made {escape(str((r.get('provenance') or {}).get('created_utc', '?')))} · report made {made} · "
         f"fitkin {escape(__version__)}</p>{synthetic}</header>"
         f'<nav class="toc">{nav}</nav>' + "".join(body) + caution +

@@ -33,7 +33,8 @@ def elementary_section(ctx: ReportContext) -> Section | None:
              f"of the measured range, d = {sc.reference_diameter * 1e10:.3f} Å). Mean free paths are at "
              f"p = {sc.pressure / 1e3:g} kPa; μ and k themselves do not depend on pressure.</p>"]
     idx = _thin(sc.temperature.size)
-    rows = [[f"{sc.temperature[i]:.1f}", f"{sc.reduced_temperature[i]:.3f}", f"{sc.diameter[i] * 1e10:.3f}",
+    hs = (ctx.record.get("potential") or {}).get("name") == "hs"
+    rows = [[f"{sc.temperature[i]:.1f}", "—" if hs else f"{sc.reduced_temperature[i]:.3f}", f"{sc.diameter[i] * 1e10:.3f}",
              f"{sc.mean_speed[i]:.1f}", sci(sc.number_density[i]), f"{sc.mean_free_path[i] * 1e9:.1f}",
              f"{sc.mean_free_path[i] / sc.diameter[i]:.0f}"] for i in idx]
     parts.append("<h3>Molecular scales</h3>")

@@ -18,7 +18,8 @@ from ..summary import format_estimate
 from . import style as st
 
 __all__ = ["Section", "ReportContext", "table", "figure_html", "parameters_section", "statistics_section",
-           "OPTIONAL_SECTIONS", "LABELS", "UNIT_TEXT", "potential_text", "sci"]
+           "OPTIONAL_SECTIONS", "LABELS", "UNIT_TEXT", "potential_text", "sci",
+           "probability_text", "chi2_probability"]
 
 LABELS = {"sigma": "σ", "epsilon_over_k": "ε/k", "n": "n (repulsive exponent)", "m": "m (attractive exponent)",
           "alpha": "α (steepness)"}
@@ -116,6 +117,11 @@ def _fmt(x, digits=4) -> str:
     return "—" if x is None or not np.isfinite(x) else f"{x:.{digits}g}"
 
 
+def probability_text(p: float) -> str:
+    """A χ² probability for reading: '0.31', '2.1e-05', '< 1e-10'."""
+    return "< 1e-10" if p < 1e-10 else f"{p:.2g}"
+
+
 def chi2_probability(statistics: dict) -> float | None:
     """P(χ² ≥ observed) for a weighted fit, else None."""
     chi2, dof = statistics.get("chi2"), statistics.get("dof")
@@ -175,7 +181,7 @@ def statistics_section(ctx: ReportContext) -> Section:
     prob = chi2_probability(s)
     rows = [["χ² / degrees of freedom", f"{_fmt(s.get('chi2'))} / {s.get('dof', '—')}"],
             ["reduced χ²", _fmt(s.get("reduced_chi2"), 3)],
-            ["P(χ² ≥ observed)", _fmt(prob, 2) if prob is not None else "not applicable (no stated uncertainties)"],
+            ["P(χ² ≥ observed)", probability_text(prob) if prob is not None else "not applicable (no stated uncertainties)"],
             ["weighting", s.get("weighting", "—")],
             ["points", s.get("points", "—")],
             ["rms deviation", f"{_fmt(s.get('rms_deviation_percent'), 3)} %"],
