@@ -54,7 +54,6 @@ def read_gas_file(path) -> "Gas":  # noqa: F821 - forward reference to fitkin.sp
         inconsistent entries; the message names the file and key.
     """
     p = Path(path)
-    where = _Where(str(p))
     try:
         with p.open("rb") as fh:
             data = tomllib.load(fh)
@@ -69,9 +68,8 @@ def read_gas_file(path) -> "Gas":  # noqa: F821 - forward reference to fitkin.sp
 
 def parse_gas_description(data: dict, *, file: str = "<gas description>") -> "Gas":  # noqa: F821
     """Build a :class:`fitkin.species.Gas` from an already parsed gas description (a dict)."""
-    from .species import Gas, molar_mass_from_formula
-    from .species import DEBYE
     from .atomic_weights import ATOMIC_WEIGHTS_EDITION
+    from .species import DEBYE, Gas, molar_mass_from_formula, parse_formula
 
     where = _Where(file)
     _check_keys(data, "", where)
@@ -91,7 +89,6 @@ def parse_gas_description(data: dict, *, file: str = "<gas description>") -> "Ga
     if formula is not None:
         try:
             formula_mass = molar_mass_from_formula(formula)
-            from .species import parse_formula
             atoms = sum(parse_formula(formula).values())
         except GasError as exc:
             raise where.error("formula", str(exc)) from None
@@ -145,7 +142,7 @@ def _critical(section: dict, where: _Where):
 
 
 def _heat_capacity(data: dict, atoms: int | None, molar_mass: float, where: _Where):
-    from .thermo import GEOMETRIES, RigidRotorHarmonicOscillator, TabulatedHeatCapacity, MonatomicHeatCapacity
+    from .thermo import GEOMETRIES, MonatomicHeatCapacity, RigidRotorHarmonicOscillator
     molecule = data.get("molecule")
     table = data.get("heat_capacity")
     geometry = None
