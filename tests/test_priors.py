@@ -9,7 +9,8 @@ from fitkin.errors import FitError
 from fitkin.inference.corresponding_states import (CriticalConstants, bird_stewart_lightfoot,
                                                    corresponding_states_estimate, corresponding_states_priors,
                                                    parse_critical_constants, tee_gotoh_stewart)
-from fitkin.inference.priors import Gaussian, LogUniform, PriorSet, Uniform, parse_prior
+from fitkin.inference.likelihood import parse_calibration
+from fitkin.inference.priors import Gaussian, LogUniform, PriorSet, Uniform, parse_prior, parse_prior_assignment
 
 
 def _mass(prior, lo, hi):
@@ -59,6 +60,16 @@ def test_parse_prior_spellings_and_errors():
                        ("gaussian:1,-2", "positive width"), ("uniform:a,b", "numbers")]:
         with pytest.raises(FitError, match=words):
             parse_prior(bad)
+
+
+def test_command_line_assignments():
+    # Common practice: NAME=KIND:ARGS and SOURCE=REL_U, percentages allowed.
+    assert parse_prior_assignment("eps=uniform:50,300") == ("epsilon_over_k", Uniform(50.0, 300.0))
+    assert parse_calibration("lab B=2%") == ("lab B", pytest.approx(0.02))
+    assert parse_calibration("a=b=0.01") == ("a=b", 0.01)
+    for bad in ("sigma", "lab B", "lab B=two"):
+        with pytest.raises(FitError):
+            (parse_prior_assignment if bad == "sigma" else parse_calibration)(bad)
 
 
 def test_prior_set_reports_excluded_parameters():

@@ -83,6 +83,10 @@ def test_diagnostics_are_reported(well_posed):
     assert rec["seed"] == 5 and rec["diagnostics"]["converged"] is True
     p = rec["parameters"]["sigma"]
     assert p["p2_5"] < p["p16"] < p["median"] < p["p84"] < p["p97_5"]
+    # default priors: bounded uniform within the least-squares bounds, recorded
+    assert rec["priors"]["sigma"] == {"kind": "uniform", "lower": 1.0, "upper": 30.0}
+    text = "\n".join(post.summary_lines())
+    assert "converged" in text and "68 %" in text and "correlation(σ, ε/k)" in text
 
 
 def test_same_seed_same_draws():

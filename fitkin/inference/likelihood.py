@@ -27,7 +27,7 @@ from .fitdata import FitData
 from .model import ANGSTROM, ForwardModel
 from .priors import Gaussian, Uniform
 
-__all__ = ["LogLikelihood", "PROPERTY_PREDICTORS", "SCATTER_NAME", "calibration_name",
+__all__ = ["LogLikelihood", "parse_calibration", "PROPERTY_PREDICTORS", "SCATTER_NAME", "calibration_name",
            "source_offsets", "LIKELIHOOD_FORMS", "SCATTER_LOG10_RANGE"]
 
 LIKELIHOOD_FORMS = ("gaussian", "student_t")
@@ -274,6 +274,24 @@ class LogLikelihood:
             d["degrees_of_freedom"] = self.nu
             d["reference"] = "Lange, Little & Taylor, J. Am. Stat. Assoc. 84, 881 (1989)"
         return d
+
+
+def parse_calibration(text: str) -> tuple[str, float]:
+    """``SOURCE=REL_U`` (the ``--calibrate`` option; ``REL_U`` as 0.02 or 2%) → (source, 0.02).
+
+    >>> parse_calibration("hot-wire 2019=1.5%")
+    ('hot-wire 2019', 0.015)
+    """
+    if "=" not in str(text):
+        raise FitError(f"--calibrate expects SOURCE=RELATIVE_UNCERTAINTY, e.g. 'lab B=0.02' or 'lab B=2%', got '{text}'")
+    source, value = (t.strip() for t in str(text).rsplit("=", 1))
+    try:
+        rel = float(value[:-1]) / 100.0 if value.endswith("%") else float(value)
+    except ValueError:
+        raise FitError(f"--calibrate {text}: '{value}' is not a number (write 0.02 or 2%)") from None
+    if not source:
+        raise FitError(f"--calibrate {text}: the source name is empty")
+    return source, rel
 
 
 def _shape_stencil(model: ForwardModel):

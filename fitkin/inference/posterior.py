@@ -134,6 +134,23 @@ class Posterior:
                       "ratio_sd_to_stderr": sd / p.stderr if p.stderr and np.isfinite(p.stderr) else None}
         return out
 
+    def summary_lines(self) -> list[str]:
+        """Plain-text lines for a terminal: median, 68 % and 95 % intervals, correlation, diagnostics."""
+        lines = [f"posterior ({self.sampler.get('walkers', '?')} walkers, seed {self.seed}): "
+                 + self.convergence_message]
+        for n, s in self.summary().items():
+            unit = {"angstrom": "Å", "1": ""}.get(s["unit"], s["unit"])
+            lines.append(f"  {n:<24s} {s['median']:.6g} {unit}   68 %: [{s['p16']:.6g}, {s['p84']:.6g}]   "
+                         f"95 %: [{s['p2_5']:.6g}, {s['p97_5']:.6g}]")
+        if "sigma" in self.names and "epsilon_over_k" in self.names:
+            r = self.correlation[self.names.index("sigma"), self.names.index("epsilon_over_k")]
+            lines.append(f"  correlation(σ, ε/k) = {r:+.3f}")
+        d = self.diagnostics
+        lines.append(f"  τ = {', '.join(f'{t:.0f}' for t in d.tau)} steps; acceptance {d.acceptance['mean']:.2f}; "
+                     f"ESS ≥ {min(d.ess):.0f}")
+        lines += [f"  warning: {w}" for w in self.warnings]
+        return lines
+
     # -- record -------------------------------------------------------------------------
     def to_record(self, samples: dict | None = None) -> dict:
         """The ``"posterior"`` section of the parameter file.

@@ -19,7 +19,8 @@ import numpy as np
 
 from ..errors import FitError
 
-__all__ = ["Prior", "Uniform", "LogUniform", "Gaussian", "PriorSet", "parse_prior", "PRIOR_KINDS"]
+__all__ = ["Prior", "Uniform", "LogUniform", "Gaussian", "PriorSet", "parse_prior", "parse_prior_assignment",
+           "PRIOR_KINDS"]
 
 
 class Prior:
@@ -210,6 +211,19 @@ def parse_prior(text: str) -> Prior:
     if kind in ("gaussian", "normal"):
         return Gaussian(*values)
     raise FitError(f"unknown prior kind '{kind}'; expected one of {', '.join(PRIOR_KINDS)}")
+
+
+def parse_prior_assignment(text: str) -> tuple[str, Prior]:
+    """``NAME=KIND:ARGS`` (the ``--prior`` option) → (name, prior).
+
+    >>> parse_prior_assignment("sigma=gaussian:3.4,0.2")
+    ('sigma', Gaussian(mean=3.4, sd=0.2, lower=-inf, upper=inf, origin=''))
+    """
+    if "=" not in str(text):
+        raise FitError(f"--prior expects NAME=KIND:ARGS, e.g. sigma=gaussian:3.4,0.2, got '{text}'")
+    name, spec = (t.strip() for t in str(text).split("=", 1))
+    aliases = {"eps": "epsilon_over_k", "epsilon": "epsilon_over_k", "eps/k": "epsilon_over_k"}
+    return aliases.get(name, name), parse_prior(spec)
 
 
 class PriorSet:
