@@ -285,3 +285,15 @@ def test_argon_reference_viscosity_with_sampling():
     s = post.summary()["sigma"]
     assert s["p2_5"] < s["p16"] < s["median"] < s["p84"] < s["p97_5"]
     assert 3.28 < s["median"] < 3.45  # published LJ sets for argon (see test_fit_argon.py)
+
+
+def test_points_without_uncertainties_fit_their_scatter():
+    # Common practice: with no stated u(value) the scatter is a parameter; data drawn with 1 %
+    # noise must give s near 1 % (±40 % for 12 points: 1/√24 ≈ 20 % is one sd).
+    data = synthetic([("viscosity", np.linspace(200, 900, 12), 0.01, 0.01, "A", 1.0)], seed=31)
+    from dataclasses import replace
+    data = replace(data, uncertainty=np.full(len(data), np.nan), weighted=False)
+    post = sample_posterior(data, ARGON, **FAST, seed=8, max_steps=3000)
+    assert "log10_scatter" in post.names
+    assert any("not every point states u(value)" in w for w in post.warnings)
+    assert 10 ** post.median("log10_scatter") == pytest.approx(0.01, rel=0.4)
