@@ -95,7 +95,11 @@ footer { margin-top: 26px; font-size: 12px; color: var(--muted); border-top: 1px
   body { background: #fff; font-size: 10.5pt; }
   main { max-width: none; padding: 0; }
   nav.toc { display: none; }
-  h2 { page-break-after: avoid; break-after: avoid; }
+  h2, h3 { page-break-after: avoid; break-after: avoid; break-inside: avoid; }
+  /* keep a heading with what follows: reserve room below it without taking space */
+  h2::after { content: ""; display: block; height: 24em; margin-bottom: -24em; }
+  h3::after { content: ""; display: block; height: 10em; margin-bottom: -10em; }
+  p.lead { break-after: avoid; }
   section.summary, .caution, ul.warnings li, th { -webkit-print-color-adjust: exact; print-color-adjust: exact; }
   table, figure { page-break-inside: avoid; break-inside: avoid; }
   a { color: inherit; text-decoration: none; }
