@@ -13,6 +13,9 @@ Potential` or a text such as ``"lj"``, ``"mie:13"``, ``"exp6:14"``).
 What is computed (SI throughout):
 
 * D12(T, p): Chapman–Enskog first approximation (composition independent), from Ω12(1,1)*.
+* k_tr,mix(T, x1): the same for the translational (monatomic) thermal conductivity; it
+  leaves out internal-energy transport, so it is the whole conductivity only for
+  monatomic gases.
 * μ_mix(T, x1): the Chapman–Enskog first approximation for binary mixtures, with the pure
   viscosities μ1, μ2 of each gas's fitted model and the interaction viscosity μ12 of the
   unlike pair. Each of μ1, μ2, μ12 is evaluated at the same Sonine order (by default the
@@ -149,6 +152,8 @@ class GasPair:
                            for p, m in ((p1, m1), (p2, m2)))
         self._pair_model = TransportModel(self.shape, order=order, collision=self.collision)
         self._pair_first = TransportModel(self.shape, order=1, collision=self.collision)
+        # Ω(1,2)*, Ω(1,3)* for B* exist only in the computed tables
+        self._pair_computed = TransportModel(self.shape, order=1, collision="computed")
 
     # -- description ---------------------------------------------------------------------
     @property
@@ -181,6 +186,7 @@ class GasPair:
             "binary_diffusion": "Chapman–Enskog first approximation (composition independent)",
             "mixture_viscosity": (f"Chapman–Enskog first approximation for mixtures; μ1, μ2, μ12 at Sonine "
                                   f"order {self.order}"),
+            "translational_conductivity": "Chapman–Enskog first approximation for mixtures, no internal energy",
             "temperature_range_K": list(self.temperature_range),
         }
 
@@ -196,7 +202,7 @@ class GasPair:
         try:
             return model.omega(l, s, T_star)
         except OutOfRangeError as exc:
-            lo, hi = self.temperature_range
+            lo, hi = (v * self.epsilon12_over_k for v in model.t_star_range)
             raise OutOfRangeError(f"pair {self.name} (ε12/k = {self.epsilon12_over_k:.4g} K): {exc}; "
                                   f"the unlike pair is covered for {lo:.4g} K ≤ T ≤ {hi:.4g} K") from None
 
@@ -237,9 +243,7 @@ class GasPair:
         T (K) and x1 broadcast against each other; the result has their shape.
         """
         T = self._temperatures(T)
-        x1 = np.asarray(x1, dtype=float)
-        if x1.size == 0 or np.any(~np.isfinite(x1)) or np.any((x1 < 0) | (x1 > 1)):
-            raise FitkinError(f"mole fraction x1 of {self.names[0]} must lie between 0 and 1")
+        x1 = self._mole_fraction(x1)
         T, x1 = np.broadcast_arrays(T, x1)
         t = T.ravel()
         mu1, mu2 = self._pure_viscosity(0, t), self._pure_viscosity(1, t)
@@ -248,6 +252,41 @@ class GasPair:
         a_star = self._omega(self._pair_first, 2, 2, t_star) / self._omega(self._pair_first, 1, 1, t_star)
         M1, M2 = self.molar_masses
         out = mix.binary_mixture_viscosity_first(x1.ravel(), mu1, mu2, mu12, M1, M2, a_star)
+        return out.reshape(T.shape)[()]
+
+    def _mole_fraction(self, x1) -> np.ndarray:
+        x1 = np.asarray(x1, dtype=float)
+        if x1.size == 0 or np.any(~np.isfinite(x1)) or np.any((x1 < 0) | (x1 > 1)):
+            raise FitkinError(f"mole fraction x1 of {self.names[0]} must lie between 0 and 1")
+        return x1
+
+    def translational_conductivity(self, T, x1):
+        """Translational (monatomic) thermal conductivity of the mixture, W/(m K).
+
+        Chapman–Enskog first approximation for binary mixtures with the pure translational
+        conductivities of each gas's model and k12 of the unlike pair, each at the pair's
+        Sonine order (as for :meth:`viscosity`). For polyatomic gases the internal-energy
+        part is missing: this is not their whole conductivity. T (K) and x1 broadcast.
+        """
+        T = self._temperatures(T)
+        x1 = self._mole_fraction(x1)
+        T, x1 = np.broadcast_arrays(T, x1)
+        t = T.ravel()
+        t_star = t / self.epsilon12_over_k
+        om = {ls: self._omega(self._pair_computed, *ls, t_star) for ls in ((1, 1), (1, 2), (1, 3), (2, 2))}
+        a_star = om[2, 2] / om[1, 1]
+        b_star = mix.b_star(om[1, 1], om[1, 2], om[1, 3])
+        k_pure = []
+        for i, gas in enumerate((self.first, self.second)):
+            try:
+                k_pure.append(self._pure[i].conductivity(t, gas.gas.molar_mass, gas.sigma, gas.epsilon_over_k))
+            except OutOfRangeError as exc:
+                raise OutOfRangeError(f"pair {self.name}, pure {self.names[i]}: {exc}") from None
+        M1, M2 = self.molar_masses
+        k12 = self._pair_model.conductivity(t, 2.0 * mix.reduced_molar_mass(M1, M2), self.sigma12,
+                                            self.epsilon12_over_k)
+        out = mix.binary_mixture_conductivity_first(x1.ravel(), k_pure[0], k_pure[1], k12, M1, M2,
+                                                    a_star, b_star)
         return out.reshape(T.shape)[()]
 
     def __repr__(self) -> str:

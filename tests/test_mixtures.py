@@ -12,6 +12,7 @@ correlation, so it is no check of the Chapman–Enskog mixture formula.
 """
 import numpy as np
 import pytest
+from scipy import constants
 
 from fitkin.errors import FitkinError, OutOfRangeError
 from fitkin.fitted import FittedGas
@@ -273,3 +274,47 @@ def test_interaction_viscosity_is_a_pure_gas_of_twice_the_reduced_mass():
     omega22 = tm.omega(2, 2, T / pair.epsilon12_over_k)
     bsl = 2.6693e-5 * np.sqrt(two_m12 * 1000 * T) / ((pair.sigma12 * 1e10) ** 2 * omega22) * 0.1
     np.testing.assert_allclose(pair.interaction_viscosity(T), bsl, rtol=5e-4)
+
+
+# ---------------------------------------------------------------- translational conductivity
+def test_conductivity_closed_form_equals_determinant_form():
+    # Hirschfelder, Curtiss & Bird (1954): binary closed form (8.2-36) and the ratio of
+    # determinants (8.2-41), as written by Mason & Saxena, Phys. Fluids 1, 361 (1958), eq. (1).
+    rng = np.random.default_rng(11)
+    for _ in range(20):
+        k1, k2, k12 = rng.uniform(0.005, 0.2, 3)
+        M1, M2 = rng.uniform(0.002, 0.15, 2)
+        a, b, x = rng.uniform(1.05, 1.25), rng.uniform(1.0, 1.2), rng.uniform()
+        closed = mix.binary_mixture_conductivity_first(x, k1, k2, k12, M1, M2, a, b)
+        det = mix.mixture_conductivity_first([x, 1 - x], [k1, k2], [M1, M2], [[0, k12], [k12, 0]],
+                                             [[0, a], [a, 0]], [[0, b], [b, 0]])
+        assert closed == pytest.approx(float(det), rel=1e-12)
+
+
+@pytest.mark.parametrize("order", [1, 3])
+def test_conductivity_of_a_gas_with_itself_and_limits(order, argon_order3):
+    # Chapman & Cowling (1970), §12.4: a gas mixed with itself is the pure gas; x1 = 0, 1 give
+    # the pure gases' own translational conductivities.
+    gas = AR if order == 1 else argon_order3
+    T = np.array([200.0, 800.0])
+    x = np.linspace(0.0, 1.0, 5)
+    k = GasPair(gas, gas).translational_conductivity(T[:, None], x)
+    np.testing.assert_allclose(k, np.broadcast_to(gas.conductivity(T)[:, None], k.shape), rtol=1e-12)
+    pair = GasPair(gas, HE if order == 1 else fitted("He", 2.576, 10.22, order=3, collision="computed"))
+    np.testing.assert_allclose(pair.translational_conductivity(T, 1.0), gas.conductivity(T), rtol=1e-12)
+    np.testing.assert_allclose(pair.translational_conductivity(T, 0.0), pair.second.conductivity(T), rtol=1e-12)
+
+
+def test_helium_xenon_prandtl_minimum():
+    # Source: Giacobbe, J. Acoust. Soc. Am. 96, 3568 (1994) (from memory): the Prandtl number
+    # of helium–xenon mixtures falls from 2/3 to a minimum of about 0.2 near 30–40 % xenon.
+    # Xenon 12-6 parameters σ = 4.055 Å, ε/k = 229 K: Hirschfelder, Curtiss & Bird (1954),
+    # Table I-A (from memory). Pr = μ c_p / k with c_p = (5/2) R / M_mix.
+    xe = fitted("Xe", 4.055, 229.0)
+    pair = GasPair(xe, HE)
+    x = np.linspace(0.0, 1.0, 101)
+    M_mix = x * xe.gas.molar_mass + (1 - x) * HE.gas.molar_mass
+    pr = pair.viscosity(300.0, x) * 2.5 * constants.R / M_mix / pair.translational_conductivity(300.0, x)
+    assert pr[0] == pytest.approx(2 / 3, rel=1e-6) and pr[-1] == pytest.approx(2 / 3, rel=1e-6)
+    assert pr.min() == pytest.approx(0.21, abs=0.02)
+    assert 0.25 <= x[np.argmin(pr)] <= 0.45

@@ -8,7 +8,8 @@ arguments and results are SI (K, Pa, kg/mol, m, Pa s, m²/s); arrays broadcast.
 
 Symbols: M1, M2 molar masses; M12 = M1 M2 / (M1 + M2) the reduced molar mass (the reduced
 molecular mass is m12 = M12 / N_A); σ12, ε12 the unlike potential's zero crossing and well
-depth; A*12 = Ω12(2,2)*/Ω12(1,1)*.
+depth; A*12 = Ω12(2,2)*/Ω12(1,1)*; B*12 = (5Ω12(1,2)* − 4Ω12(1,3)*)/Ω12(1,1)*. The thermal
+conductivities here are translational (monatomic) ones: no internal-energy transport.
 """
 from __future__ import annotations
 
@@ -16,7 +17,7 @@ import numpy as np
 from scipy import constants
 
 from ..errors import FitkinError
-from .chapman_enskog import viscosity_first
+from .chapman_enskog import monatomic_conductivity_first, viscosity_first
 
 __all__ = [
     "lorentz_berthelot",
@@ -25,6 +26,10 @@ __all__ = [
     "interaction_viscosity_first",
     "binary_mixture_viscosity_first",
     "mixture_viscosity_first",
+    "b_star",
+    "interaction_conductivity_first",
+    "binary_mixture_conductivity_first",
+    "mixture_conductivity_first",
 ]
 
 _KB = constants.k
@@ -42,15 +47,9 @@ def lorentz_berthelot(sigma1, sigma2, epsilon1_over_k, epsilon2_over_k, k12=0.0,
     parameters k12 and l12 are the usual empirical corrections (k12 > 0 weakens the unlike
     attraction).
 
-    Parameters
-    ----------
-    sigma1, sigma2 : m (or any common length unit; the result is in the same unit).
-    epsilon1_over_k, epsilon2_over_k : K.
-    k12, l12 : dimensionless corrections, each below 1.
-
-    Returns
-    -------
-    (sigma12, epsilon12_over_k) in the units of the inputs.
+    Parameters: sigma1, sigma2 in m (or any common length unit, kept in the result);
+    epsilon1_over_k, epsilon2_over_k in K; k12, l12 dimensionless, each below 1.
+    Returns (sigma12, epsilon12_over_k) as floats.
 
     References
     ----------
@@ -68,15 +67,12 @@ def lorentz_berthelot(sigma1, sigma2, epsilon1_over_k, epsilon2_over_k, k12=0.0,
     >>> round(s, 3), round(e, 1)
     (3.793, 144.6)
     """
-    k12 = float(k12)
-    l12 = float(l12)
+    k12, l12 = float(k12), float(l12)
     if not (np.isfinite(k12) and k12 < 1.0) or not (np.isfinite(l12) and l12 < 1.0):
         raise FitkinError(f"combining-rule corrections must be finite and below 1, got k12={k12:g}, "
                           f"l12={l12:g}")
-    sigma12 = (1.0 - l12) * 0.5 * (np.asarray(sigma1, dtype=float) + np.asarray(sigma2, dtype=float))
-    eps12 = (1.0 - k12) * np.sqrt(np.asarray(epsilon1_over_k, dtype=float)
-                                  * np.asarray(epsilon2_over_k, dtype=float))
-    return float(sigma12) if np.ndim(sigma12) == 0 else sigma12, float(eps12) if np.ndim(eps12) == 0 else eps12
+    sigma12 = (1.0 - l12) * 0.5 * (float(sigma1) + float(sigma2))
+    return sigma12, (1.0 - k12) * float(np.sqrt(float(epsilon1_over_k) * float(epsilon2_over_k)))
 
 
 def reduced_molar_mass(molar_mass1, molar_mass2):
@@ -85,8 +81,7 @@ def reduced_molar_mass(molar_mass1, molar_mass2):
     >>> reduced_molar_mass(0.040, 0.040)
     0.02
     """
-    m1 = np.asarray(molar_mass1, dtype=float)
-    m2 = np.asarray(molar_mass2, dtype=float)
+    m1, m2 = np.asarray(molar_mass1, dtype=float), np.asarray(molar_mass2, dtype=float)
     out = m1 * m2 / (m1 + m2)
     return float(out) if out.ndim == 0 else out
 
@@ -98,15 +93,10 @@ def binary_diffusion_first(T, pressure, molar_mass1, molar_mass2, sigma12, omega
 
     with m12 the reduced molecular mass. In this approximation D12 does not depend on the
     composition; the higher (Kihara) approximations add a composition-dependent factor of
-    typically 1–3 %, which fitkin does not compute.
+    a few per cent at most (from memory), which fitkin does not compute.
 
-    Parameters
-    ----------
-    T : array_like, K.
-    pressure : array_like, Pa (ideal gas, n = p/kT).
-    molar_mass1, molar_mass2 : kg/mol.
-    sigma12 : m.
-    omega11 : array_like, Ω12(1,1)*(T*12), dimensionless.
+    Parameters: T (K) and pressure (Pa; ideal gas, n = p/kT) array_like; molar masses in
+    kg/mol; sigma12 in m; omega11 = Ω12(1,1)*(T*12), array_like.
 
     References
     ----------
@@ -138,13 +128,8 @@ def interaction_viscosity_first(T, molar_mass1, molar_mass2, sigma12, omega22, c
 
     .. math:: μ_{12} = \frac{5}{16}\,\frac{\sqrt{2π m_1 m_2 kT/(m_1+m_2)}}{π σ_{12}^2 Ω_{12}^{(2,2)*}}
 
-    Parameters
-    ----------
-    T : array_like, K.
-    molar_mass1, molar_mass2 : kg/mol.
-    sigma12 : m.
-    omega22 : array_like, Ω12(2,2)*(T*12).
-    correction : array_like, a factor applied as for a pure gas (1 in the first approximation).
+    Parameters: T (K, array_like), molar masses (kg/mol), sigma12 (m), omega22 = Ω12(2,2)*(T*12),
+    correction = a factor applied as for a pure gas (1 in the first approximation).
 
     References
     ----------
@@ -273,9 +258,139 @@ def mixture_viscosity_first(x, mu, molar_mass, mu_pair, a_star_pair):
     H = np.where(off, 0.0, H)
     idx = np.arange(n)
     H[..., idx, idx] = x**2 / mu + diag_terms
-    # components absent from the mixture (x = 0) leave a zero row and column: drop them by
-    # putting 1 on their diagonal, which does not change x^T H^-1 x since x_i = 0 there.
-    absent = x == 0.0
-    H[..., idx, idx] = np.where(absent, 1.0, H[..., idx, idx])
+    # an absent component (x_i = 0) leaves a zero row and column: 1 on its diagonal drops it
+    H[..., idx, idx] = np.where(x == 0.0, 1.0, H[..., idx, idx])
     b = np.linalg.solve(H, x[..., None])[..., 0]
     return np.sum(x * b, axis=-1)
+
+
+def b_star(omega11, omega12, omega13):
+    r"""B* = (5 Ω(1,2)* − 4 Ω(1,3)*) / Ω(1,1)*, dimensionless.
+
+    Reference: Hirschfelder, Curtiss & Bird (1954), §8.2 (definition of B*, with A* and C*).
+    Rigid spheres (every reduced Ω equal to 1) have B* = 1:
+
+    >>> float(b_star(1.0, 1.0, 1.0))
+    1.0
+    """
+    return (5.0 * np.asarray(omega12, dtype=float) - 4.0 * np.asarray(omega13, dtype=float)) / np.asarray(omega11)
+
+
+def interaction_conductivity_first(T, molar_mass1, molar_mass2, sigma12, omega22, correction=1.0):
+    r"""Interaction (translational) conductivity k12 in W/(m K): the monatomic conductivity
+    of a hypothetical pure gas of molecular mass 2 m12 with the unlike potential,
+    k12 = (15/4) (k_B / 2m12) μ12 in the first approximation.
+
+    References
+    ----------
+    Hirschfelder, Curtiss & Bird (1954), §8.2, the [λ12]₁ of eq. (8.2-36) (number from memory).
+
+    Examples
+    --------
+    >>> a = interaction_conductivity_first(300.0, 0.04, 0.04, 3.4e-10, 1.0)
+    >>> bool(abs(a / monatomic_conductivity_first(300.0, 0.04, 3.4e-10, 1.0) - 1) < 1e-14)
+    True
+    """
+    return monatomic_conductivity_first(T, 2.0 * reduced_molar_mass(molar_mass1, molar_mass2), sigma12,
+                                        omega22, correction)
+
+
+def binary_mixture_conductivity_first(x1, k1, k2, k12, molar_mass1, molar_mass2, a_star12, b_star12):
+    r"""Translational thermal conductivity of a binary mixture, first approximation, W/(m K).
+
+    .. math::
+        k_{mix} = \frac{1 + Z}{X + Y},\quad
+        X = \frac{x_1^2}{k_1} + \frac{2x_1x_2}{k_{12}} + \frac{x_2^2}{k_2},\quad
+        Y = \frac{x_1^2}{k_1}U_1 + \frac{2x_1x_2}{k_{12}}U_Y + \frac{x_2^2}{k_2}U_2,\quad
+        Z = x_1^2 U_1 + 2x_1x_2 U_Z + x_2^2 U_2,
+
+        U_1 = \tfrac{4}{15}A^* - \tfrac{1}{12}(\tfrac{12}{5}B^* + 1)\tfrac{M_1}{M_2}
+              + \tfrac12 \tfrac{(M_1-M_2)^2}{M_1M_2}\quad(U_2: 1 ↔ 2),
+
+        U_Y = \tfrac{4}{15}A^* g \tfrac{k_{12}^2}{k_1k_2} - \tfrac{1}{12}(\tfrac{12}{5}B^* + 1)
+              - \tfrac{5}{32A^*}(\tfrac{12}{5}B^* - 5)\tfrac{(M_1-M_2)^2}{M_1M_2},
+
+        U_Z = \tfrac{4}{15}A^* \left[g\left(\tfrac{k_{12}}{k_1} + \tfrac{k_{12}}{k_2}\right) - 1\right]
+              - \tfrac{1}{12}(\tfrac{12}{5}B^* + 1),\qquad g = \tfrac{(M_1+M_2)^2}{4M_1M_2}.
+
+    Parameters
+    ----------
+    x1 : array_like, mole fraction of gas 1.
+    k1, k2 : array_like, pure translational conductivities, W/(m K).
+    k12 : array_like, :func:`interaction_conductivity_first`, W/(m K).
+    molar_mass1, molar_mass2 : kg/mol.
+    a_star12, b_star12 : array_like, A*12 and B*12 at T*12.
+
+    References
+    ----------
+    Hirschfelder, Curtiss & Bird (1954), eq. (8.2-36) with the U of eqs. (8.2-37)–(8.2-40)
+    (numbers from memory); Chapman & Cowling (1970), §12.4.
+
+    Examples
+    --------
+    A gas mixed with itself has the pure conductivity:
+
+    >>> round(float(binary_mixture_conductivity_first(0.4, 0.02, 0.02, 0.02, 0.04, 0.04, 1.1, 1.1)), 12)
+    0.02
+    """
+    x1 = np.asarray(x1, dtype=float)
+    x2 = 1.0 - x1
+    k1, k2, k12, a, b = (np.asarray(v, dtype=float) for v in (k1, k2, k12, a_star12, b_star12))
+    M1, M2 = float(molar_mass1), float(molar_mass2)
+    g = (M1 + M2) ** 2 / (4.0 * M1 * M2)
+    d = (M1 - M2) ** 2 / (M1 * M2)
+    c = (2.4 * b + 1.0) / 12.0
+    u1 = 4.0 / 15.0 * a - c * M1 / M2 + 0.5 * d
+    u2 = 4.0 / 15.0 * a - c * M2 / M1 + 0.5 * d
+    uy = 4.0 / 15.0 * a * g * k12**2 / (k1 * k2) - c - 5.0 / (32.0 * a) * (2.4 * b - 5.0) * d
+    uz = 4.0 / 15.0 * a * (g * (k12 / k1 + k12 / k2) - 1.0) - c
+    X = x1**2 / k1 + 2.0 * x1 * x2 / k12 + x2**2 / k2
+    Y = x1**2 / k1 * u1 + 2.0 * x1 * x2 / k12 * uy + x2**2 / k2 * u2
+    Z = x1**2 * u1 + 2.0 * x1 * x2 * uz + x2**2 * u2
+    return (1.0 + Z) / (X + Y)
+
+
+def mixture_conductivity_first(x, k, molar_mass, k_pair, a_star_pair, b_star_pair):
+    r"""Translational conductivity of an N-component mixture, first approximation, W/(m K).
+
+    .. math::
+        k_{mix} = -4\,\mathbf x^{\mathsf T} L^{-1} \mathbf x,\qquad
+        L_{ii} = -\frac{4x_i^2}{k_i} - \sum_{m≠i} \frac{2x_ix_m\,(\tfrac{15}{2}M_i^2
+                 + \tfrac{25}{4}M_m^2 - 3M_m^2B^*_{im} + 4M_iM_mA^*_{im})}{(M_i+M_m)^2A^*_{im}k_{im}},
+
+        L_{ij} = \frac{2x_ix_jM_iM_j}{(M_i+M_j)^2A^*_{ij}k_{ij}}
+                 \left(\tfrac{55}{4} - 3B^*_{ij} - 4A^*_{ij}\right)\quad(i ≠ j),
+
+    the ratio of determinants of the source written as a linear solve; for N = 2 the same
+    as :func:`binary_mixture_conductivity_first`. Shapes as in :func:`mixture_viscosity_first`.
+
+    References
+    ----------
+    Hirschfelder, Curtiss & Bird (1954), eqs. (8.2-41)–(8.2-43) (numbers from memory);
+    Mason, E. A. and Saxena, S. C., Phys. Fluids 1, 361 (1958), eq. (1).
+
+    Examples
+    --------
+    >>> k = mixture_conductivity_first([0.5, 0.5], [0.02, 0.02], [0.04, 0.04], [[0.02, 0.02]] * 2,
+    ...                                [[1.1, 1.1]] * 2, [[1.1, 1.1]] * 2)
+    >>> round(float(k), 12)
+    0.02
+    """
+    x, k, M, kij, aij, bij = (np.asarray(v, dtype=float) for v in (x, k, molar_mass, k_pair, a_star_pair,
+                                                                     b_star_pair))
+    n = M.size
+    if x.shape[-1] != n or k.shape[-1] != n or kij.shape[-2:] != (n, n):
+        raise FitkinError(f"mixture_conductivity_first: inconsistent shapes for {n} components "
+                          f"(x {x.shape}, k {k.shape}, k_pair {kij.shape})")
+    eye = np.eye(n, dtype=bool)
+    kij, aij, bij = (np.where(eye, 1.0, v) for v in (kij, aij, bij))
+    Mi, Mm = M[:, None], M[None, :]
+    xx = x[..., :, None] * x[..., None, :]
+    scale = 2.0 * xx / ((Mi + Mm) ** 2 * aij * kij)
+    L = np.where(eye, 0.0, scale * Mi * Mm * (55.0 / 4.0 - 3.0 * bij - 4.0 * aij))
+    diag = np.where(eye, 0.0, scale * (7.5 * Mi**2 + 6.25 * Mm**2 - 3.0 * Mm**2 * bij + 4.0 * Mi * Mm * aij))
+    idx = np.arange(n)
+    L[..., idx, idx] = -4.0 * x**2 / k - diag.sum(axis=-1)
+    L[..., idx, idx] = np.where(x == 0.0, 1.0, L[..., idx, idx])  # absent components (see above)
+    b = np.linalg.solve(L, x[..., None])[..., 0]
+    return -4.0 * np.sum(x * b, axis=-1)
