@@ -22,7 +22,7 @@ from ..species import Gas
 from .diagnostics import (Diagnostics, acceptance_summary, assess_convergence, effective_sample_size,
                           integrated_time, split_rhat)
 from .fitdata import FitData
-from .likelihood import SCATTER_NAME, LogLikelihood, calibration_name, source_offsets
+from .likelihood import LogLikelihood, calibration_name, source_offsets
 from .model import ForwardModel
 from .posterior import Posterior
 from .priors import Prior, PriorSet, Uniform, parse_prior
