@@ -215,6 +215,8 @@ def test_prior_excluding_least_squares_solution():
         sample_posterior(data, ARGON, **FAST, priors={"sigma": "uniform:4,5"})
     with pytest.raises(FitError, match="wholly outside the range the model can evaluate"):
         sample_posterior(data, ARGON, **FAST, priors={"epsilon_over_k": "uniform:5000,6000"})
+    conflict = sample_posterior(data, ARGON, **FAST, priors={"sigma": "gaussian:3.0,0.05"}, max_steps=200, seed=1)
+    assert any("prior and data disagree on sigma" in w for w in conflict.warnings)
     with pytest.raises(FitError, match="does not sample"):
         sample_posterior(data, ARGON, **FAST, priors={"n": "uniform:8,20"})
 

@@ -25,7 +25,7 @@ from .fitdata import FitData
 from .likelihood import LogLikelihood, calibration_name, source_offsets
 from .model import ForwardModel
 from .posterior import Posterior
-from .priors import Prior, PriorSet, Uniform, parse_prior
+from .priors import Gaussian, Prior, PriorSet, Uniform, parse_prior
 from .result import PARAMETER_UNITS
 
 __all__ = ["sample_posterior", "initial_ensemble", "BURN_IN_TAU", "RIDGE_CORRELATION", "CONTRADICTION_Z"]
@@ -271,6 +271,12 @@ def sample_posterior(data: FitData, gas: Gas, potential=None, *, free_shape=(), 
     if excluded:
         raise FitError("the priors exclude the least-squares solution: " + "; ".join(excluded)
                        + ". Widen the prior (σ in Å, ε/k in K) or check the data")
+    for j, name in enumerate(lik.physical_names):
+        p = prior.priors[name]
+        if isinstance(p, Gaussian) and abs(center[j] - p.mean) > 3 * p.sd:
+            warnings.append(f"prior and data disagree on {name}: the least-squares value {center[j]:.5g} lies "
+                            f"{abs(center[j] - p.mean) / p.sd:.1f} prior standard deviations from the prior mean "
+                            f"{p.mean:.5g}; the prior pulls the result")
     log_prob = _log_posterior(prior, lik)
     if not np.isfinite(log_prob(center[None, :])[0]):
         raise FitError("the sampler cannot start: the posterior is zero at the least-squares solution "
