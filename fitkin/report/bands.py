@@ -19,7 +19,6 @@ import numpy as np
 
 from ..errors import FitkinError, OutOfRangeError
 from ..fitted import FittedGas, potential_from_record
-from ..inference.model import ANGSTROM
 from ..theory.transport import TransportModel
 
 __all__ = ["Curve", "RecordModel", "posterior_samples", "POSTERIOR_BAND_DRAWS", "REPORT_SEED"]
@@ -120,10 +119,13 @@ class RecordModel:
         return lo * eps, hi * eps
 
     def evaluate(self, kind: str, T, theta: dict | None = None) -> np.ndarray:
-        """Property ``kind`` ('viscosity' or 'conductivity') at T for parameters ``theta``."""
+        """Property ``kind`` ('viscosity' or 'conductivity') at T for parameters ``theta``.
+
+        Delegates to the evaluation :class:`fitkin.fitted.FittedGas` uses, so the report's
+        curves are always the numbers ``fitkin predict`` gives.
+        """
         theta = self.theta if theta is None else {**self.theta, **theta}
-        return self.transport(theta).property(kind, np.asarray(T, dtype=float), self.molar_mass,
-                                              theta["sigma"] * ANGSTROM, theta["epsilon_over_k"])
+        return np.asarray(self.fitted._evaluate(kind, theta, np.asarray(T, dtype=float)), dtype=float)
 
     def omega22(self, T) -> np.ndarray:
         """Ω(2,2)* at the fitted ε/k and temperatures T."""
