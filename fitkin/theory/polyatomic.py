@@ -181,25 +181,28 @@ def z_rot_inf_from_reference(z_rot_ref, T_ref, epsilon_over_k):
     return np.asarray(z_rot_ref, dtype=float) * parker_relaxation_factor(T_ref / epsilon_over_k)
 
 
-def mason_monchick_factors(rotational_cv, rho_D_over_mu, z_rot):
+def mason_monchick_factors(rotational_cv, rho_D_over_mu, z_rot, vibrational_rho_D_over_mu=None):
     r"""Eucken factors (f_tr, f_rot, f_vib) of Mason & Monchick with rotational relaxation.
 
     .. math::
-        A = \frac52 - \frac{ρD}{μ},\qquad
-        B = Z_{rot} + \frac{2}{π}\left(\frac53\,\frac{c_{rot}}{R} + \frac{ρD}{μ}\right)
+        A = \frac52 - \frac{ρD_{rot}}{μ},\qquad
+        B = Z_{rot} + \frac{2}{π}\left(\frac53\,\frac{c_{rot}}{R} + \frac{ρD_{rot}}{μ}\right)
 
         f_{tr} = \frac52\left(1 - \frac{2}{π}\,\frac{c_{rot}}{c_{tr}}\,\frac{A}{B}\right),\quad
-        f_{rot} = \frac{ρD}{μ}\left(1 + \frac{2}{π}\,\frac{A}{B}\right),\quad
-        f_{vib} = \frac{ρD}{μ}
+        f_{rot} = \frac{ρD_{rot}}{μ}\left(1 + \frac{2}{π}\,\frac{A}{B}\right),\quad
+        f_{vib} = \frac{ρD_{vib}}{μ}
 
-    For Z_rot → ∞ they tend to the modified Eucken relation with f_int = ρD/μ; the total
-    correction to it is −(2/π)(c_rot) A²/B (times μ/M).
+    D_rot and D_vib are the diffusion coefficients of rotational and vibrational energy; both
+    equal the self-diffusion coefficient D unless resonant exchange makes them differ (Mason &
+    Monchick 1962, §IV). For Z_rot → ∞ the factors tend to the modified Eucken relation with
+    f_int = ρD/μ; the total correction to it is −(2/π) c_rot A²/B (times μ/M).
 
     Parameters
     ----------
     rotational_cv : array_like, J/(mol K).
-    rho_D_over_mu : array_like, ρD/μ (dimensionless; ≈ 1.3).
+    rho_D_over_mu : array_like, ρD_rot/μ (dimensionless; ≈ 1.3 when D_rot = D).
     z_rot : array_like, rotational collision number at the temperature (> 0).
+    vibrational_rho_D_over_mu : array_like, ρD_vib/μ (default: ``rho_D_over_mu``).
 
     References
     ----------
@@ -220,11 +223,12 @@ def mason_monchick_factors(rotational_cv, rho_D_over_mu, z_rot):
     c1 = 2.0 / np.pi * a / b
     f_tr = 2.5 * (1.0 - c1 * crot / _C_TR)
     f_rot = x * (1.0 + c1)
-    return f_tr, f_rot, x * np.ones_like(f_tr)
+    x_vib = x if vibrational_rho_D_over_mu is None else np.asarray(vibrational_rho_D_over_mu, dtype=float)
+    return f_tr, f_rot, x_vib * np.ones_like(f_tr)
 
 
 def mason_monchick_conductivity(viscosity, molar_mass, rotational_cv, vibrational_cv, rho_D_over_mu, z_rot,
-                                translational_conductivity=None):
+                                translational_conductivity=None, vibrational_rho_D_over_mu=None):
     r"""Mason–Monchick thermal conductivity k = (μ/M)(f_tr c_tr + f_rot c_rot + f_vib c_vib), W/(m K).
 
     Factors from :func:`mason_monchick_factors`. Vibrational relaxation neglected.
@@ -233,9 +237,10 @@ def mason_monchick_conductivity(viscosity, molar_mass, rotational_cv, vibrationa
     ----------
     viscosity : array_like, Pa s.   molar_mass : kg/mol.
     rotational_cv, vibrational_cv : array_like, J/(mol K).
-    rho_D_over_mu : array_like, ρD/μ.   z_rot : array_like, Z_rot(T).
+    rho_D_over_mu : array_like, ρD_rot/μ.   z_rot : array_like, Z_rot(T).
     translational_conductivity : optional, W/(m K); then the translational term is
         k_tr f_tr/(5/2).
+    vibrational_rho_D_over_mu : optional array_like, ρD_vib/μ (default ``rho_D_over_mu``).
 
     References
     ----------
@@ -253,7 +258,7 @@ def mason_monchick_conductivity(viscosity, molar_mass, rotational_cv, vibrationa
     26.2
     """
     mu = np.asarray(viscosity, dtype=float)
-    f_tr, f_rot, f_vib = mason_monchick_factors(rotational_cv, rho_D_over_mu, z_rot)
+    f_tr, f_rot, f_vib = mason_monchick_factors(rotational_cv, rho_D_over_mu, z_rot, vibrational_rho_D_over_mu)
     k_tr = _translational_term(mu, molar_mass, translational_conductivity) * (f_tr / 2.5)
     return k_tr + mu / molar_mass * (f_rot * np.asarray(rotational_cv) + f_vib * np.asarray(vibrational_cv))
 
