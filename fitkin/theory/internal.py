@@ -31,7 +31,9 @@ Models (:data:`INTERNAL_MODELS`; formulas and sources in :mod:`fitkin.theory.pol
 By default only ``z_rot_inf`` is fitted; pass ``free=`` to fit others. For gases with a large
 vibrational heat capacity (CO₂, SF₆) ``free=("z_rot_inf", "rotational_diffusion_factor",
 "vibrational_diffusion_factor")`` is what brings conductivity residuals to 1–2 % over a wide
-temperature range (see tests/test_polyatomic.py).
+temperature range (see tests/test_polyatomic.py). These are effective parameters: for SF₆,
+whose conductivity is dominated by vibration, Z_rot^∞ and ξ_rot are poorly determined
+(the fit to reference data gives Z_rot^∞ ≈ 190 with ξ_rot ≈ 0.24).
 """
 from __future__ import annotations
 
