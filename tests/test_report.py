@@ -243,3 +243,15 @@ def test_screenshot_in_headless_browser(written, tmp_path):
     import matplotlib.image as mpimg
     pixels = mpimg.imread(shot)
     assert pixels.std() > 0.05          # not a blank page
+
+
+def test_record_without_covariance_or_residuals(record):
+    rec = copy.deepcopy(record)
+    rec["residuals"] = []
+    rec["covariance"]["matrix"] = [[None, None], [None, None]]
+    for p in rec["parameters"].values():
+        p["stderr"] = None
+    html, ctx = build_report(rec)
+    assert ctx.curves["viscosity"].source == "none"
+    assert any("no usable covariance" in f.text for f in ctx.findings if f.level == "warning")
+    assert "deviations" not in ctx.figures

@@ -127,7 +127,7 @@ def fit_figure(model: RecordModel, kind: str, curve: Curve) -> Figure:
     band = f"{100 * curve.probability:.0f} % band ({curve.source})" if curve.source != "none" else "no band"
     handles += [Line2D([], [], color=st.FIT, lw=1.6, label="Chapman–Enskog fit"),
                 Patch(color=st.BAND, label=band),
-                Patch(color=st.EXTRAPOLATION, label="not measured (extrapolation)")]
+                Patch(facecolor=st.EXTRAPOLATION, edgecolor=st.MUTED, lw=0.5, label="not measured (extrapolation)")]
     top.legend(handles=handles, fontsize=8, frameon=False, loc="upper left", ncol=2)
     with np.errstate(invalid="ignore", divide="ignore"):
         rel_lo = 100 * (curve.lower / curve.median - 1)

@@ -19,7 +19,7 @@ from ..summary import format_estimate
 from . import figures as fg
 from . import style as st
 from .bands import RecordModel
-from .checks import report_findings
+from .checks import Finding, report_findings
 from .comparison import elementary_comparison
 from .narrative import elementary_section, provenance_section
 from .sections import (OPTIONAL_SECTIONS, LABELS, UNIT_TEXT, ReportContext, Section, chi2_probability,
@@ -45,6 +45,10 @@ def _prepare(record: dict, record_path=None, pressure: float = 101325.0) -> Repo
     ctx.curves = {k: model.curve(k, T) for k in st.DISPLAY}
     ctx.comparison = elementary_comparison(record, pressure=pressure, model=model)
     ctx.findings = report_findings(record, model)
+    if any(c.source == "none" for c in ctx.curves.values()):
+        ctx.findings.insert(0, Finding("warning", "the parameter file has no usable covariance or samples, so the "
+                                                  "curves carry no uncertainty band: the parameters' uncertainty "
+                                                  "is unknown"))
     return ctx
 
 
