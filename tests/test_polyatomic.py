@@ -215,6 +215,8 @@ def test_internal_energy_transport_interface():
     assert fixed.defaults["z_rot_inf"] == 12.0 and fixed == InternalEnergyTransport("mason_monchick",
                                                                                       fixed=(("z_rot_inf", 12),))
     assert "Mason & Monchick" in mm.describe()["reference"]
+    assert InternalEnergyTransport.from_description(fixed.describe()) == fixed
+    assert InternalEnergyTransport.from_description(both.describe()) == both
     with pytest.raises(FitkinError, match="unknown internal-energy"):
         InternalEnergyTransport("chapman")
     with pytest.raises(FitkinError, match="no parameter"):

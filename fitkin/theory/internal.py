@@ -144,6 +144,16 @@ class InternalEnergyTransport:
                 "neglected": ("vibrational relaxation (vibrational energy diffuses only)"
                               if self.name == "mason_monchick" else "")}
 
+    @classmethod
+    def from_description(cls, d: dict) -> "InternalEnergyTransport":
+        """Rebuild a model from :meth:`describe` output (e.g. read back from a parameter file).
+
+        The fitted parameters' values are not kept here: they belong with σ and ε/k in θ.
+        """
+        free = tuple(d.get("fitted", ()))
+        fixed = tuple((k, v) for k, v in d.get("values", {}).items() if k not in free)
+        return cls(d["model"], free=free, fixed=fixed)
+
     # -- the conductivity -----------------------------------------------------------------
     def conductivity(self, T, viscosity, rho_D, molar_mass, heat_capacity, epsilon_over_k, params=None,
                      translational_conductivity=None):
