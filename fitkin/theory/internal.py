@@ -84,7 +84,8 @@ class InternalEnergyTransport:
     name : one of :data:`INTERNAL_MODELS`.
     free : parameters a fit varies (default: ``("z_rot_inf",)`` for Mason–Monchick, none
         otherwise); each must be a parameter of the model.
-    fixed : ``((name, value), ...)`` overriding the defaults of parameters not fitted.
+    fixed : ``((name, value), ...)`` or a dict overriding the defaults: the value of a parameter
+        not fitted, or the starting value of a fitted one.
     """
 
     name: str = "mason_monchick"
@@ -109,7 +110,9 @@ class InternalEnergyTransport:
             lo, hi = known[k][1]
             if not lo <= v <= hi:
                 raise FitkinError(f"{k} = {v:g} is outside the range {lo:g} to {hi:g} of model '{self.name}'")
-        object.__setattr__(self, "fixed", fixed)
+        # keep only values that differ from the defaults, in a fixed order, so that equal
+        # models compare equal however they were written
+        object.__setattr__(self, "fixed", tuple(sorted((k, v) for k, v in fixed if v != known[k][0])))
 
     # -- parameters -----------------------------------------------------------------------
     @property
@@ -148,11 +151,10 @@ class InternalEnergyTransport:
     def from_description(cls, d: dict) -> "InternalEnergyTransport":
         """Rebuild a model from :meth:`describe` output (e.g. read back from a parameter file).
 
-        The fitted parameters' values are not kept here: they belong with σ and ε/k in θ.
+        Values of fitted parameters come back as starting values; the fitted values themselves
+        belong with σ and ε/k in θ.
         """
-        free = tuple(d.get("fitted", ()))
-        fixed = tuple((k, v) for k, v in d.get("values", {}).items() if k not in free)
-        return cls(d["model"], free=free, fixed=fixed)
+        return cls(d["model"], free=tuple(d.get("fitted", ())), fixed=tuple(d.get("values", {}).items()))
 
     # -- the conductivity -----------------------------------------------------------------
     def conductivity(self, T, viscosity, rho_D, molar_mass, heat_capacity, epsilon_over_k, params=None,
