@@ -134,7 +134,7 @@ def fit_figure(model: RecordModel, kind: str, curve: Curve) -> Figure:
         rel_hi = 100 * (curve.upper / curve.median - 1)
     bottom.fill_between(T, rel_lo, rel_hi, color=st.BAND, alpha=0.8, lw=0)
     bottom.axhline(0, color=st.FIT, lw=1.0)
-    bottom.set_ylabel("band [%]")
+    bottom.set_ylabel(f"{100 * curve.probability:.0f} % band [%]", fontsize=8.5)
     bottom.set_xlabel("T [K]")
     if not measured:
         top.set_title(f"{kind} was not measured: the curve is a prediction from the fit", fontsize=9,
