@@ -63,7 +63,7 @@ def test_elementary_versus_chapman_enskog_hard_spheres():
 
 def test_elementary_mean_speed_and_free_path():
     # Closed forms (common practice): v̄ = √(8kT/πm); λ = 1/(√2 π d² n); argon at 300 K:
-    # v̄ ≈ 398.8 m/s (computed by hand from the closed form).
+    # v̄ ≈ 398.7 m/s (computed by hand from the closed form).
     m = M_AR / constants.N_A
     assert el.mean_speed(300.0, m) == pytest.approx(np.sqrt(8 * constants.k * 300 / (np.pi * m)), rel=1e-14)
     n = el.number_density(101325.0, 300.0)

@@ -34,7 +34,7 @@ def mean_speed(T, molecular_mass):
     r"""Mean molecular speed v̄ = √(8kT/(πm)) of a Maxwell distribution, m/s.
 
     >>> round(float(mean_speed(300.0, 39.948e-3 / constants.N_A)), 1)
-    398.8
+    398.7
     """
     return np.sqrt(8.0 * _KB * np.asarray(T, dtype=float) / (np.pi * molecular_mass))
 
