@@ -49,13 +49,19 @@ class FittedGas:
     _model: TransportModel = field(init=False, repr=False)
 
     def __post_init__(self):
+        from .inference.model import ForwardModel
+        from .theory.internal import InternalEnergyTransport
         r = self.record
         self.gas = Gas.from_dict(r["gas"])
         theory = r["theory"]
-        self._model = TransportModel(potential_from_record(r["potential"]),
-                                     order=int(theory.get("sonine_order") or 1),
-                                     collision=theory.get("collision_integrals") or "computed")
+        internal = theory.get("internal_energy")
         self.free_shape = list(r["potential"].get("free_shape") or [])
+        self._forward = ForwardModel(
+            gas=self.gas, potential=potential_from_record(r["potential"]), free_shape=tuple(self.free_shape),
+            order=int(theory.get("sonine_order") or 1), collision=theory.get("collision_integrals") or "computed",
+            internal=InternalEnergyTransport.from_description(internal) if internal else None,
+            polar=bool(theory.get("polar_correction", False)))
+        self._model = self._forward.transport(self._theta())
 
     # -- parameters --------------------------------------------------------------------
     @property
@@ -89,22 +95,23 @@ class FittedGas:
         return [{**base, **dict(zip(names, row))} for row in samples]
 
     def _evaluate(self, kind: str, theta: dict, T, pressure=None):
-        from .inference.model import with_shape
-        shape = {k: theta[k] for k in self.free_shape}
-        model = self._model if not shape else TransportModel(
-            with_shape(self._model.potential, **shape), order=self._model.order, collision=self._model.collision)
-        sigma = theta["sigma"] * ANGSTROM
-        eps = theta["epsilon_over_k"]
-        M = self.gas.molar_mass
-        if kind == "self_diffusion":
-            return model.self_diffusion(T, pressure, M, sigma, eps)
-        return model.property(kind, T, M, sigma, eps)
+        return self._forward.property(kind, theta, T, pressure)
+
+    @property
+    def has_conductivity_model(self) -> bool:
+        """False for a polyatomic gas fitted without an internal-energy conductivity model."""
+        from .inference.model import is_monatomic
+        return is_monatomic(self.gas) or self._forward.internal is not None
 
     def predict(self, kind: str, T, pressure=None, band: float | None = None):
         """Property ``kind`` ('viscosity', 'conductivity', 'self_diffusion') at temperatures T."""
         T = np.atleast_1d(np.asarray(T, dtype=float))
         if np.any(~np.isfinite(T)) or np.any(T <= 0):
             raise FitkinError("temperatures must be finite and above 0 K")
+        if kind == "conductivity" and not self.has_conductivity_model:
+            raise FitkinError(f"this fit of '{self.gas.name}' has no model of internal-energy transport, so it "
+                              "cannot predict the thermal conductivity of a polyatomic gas; fit conductivity "
+                              "data with a gas file that gives the heat capacity (--gas FILE)")
         if band is None:
             return self._evaluate(kind, self._theta(), T, pressure)
         if not 0 < band < 1:

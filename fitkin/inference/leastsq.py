@@ -17,11 +17,12 @@ from ..species import Gas
 from ..theory.transport import TransportModel
 from ..theory.quantum import QUANTUM_WARNING_RATIO, thermal_wavelength_ratio
 from .fitdata import FitData
-from .model import ANGSTROM, ForwardModel
+from ..theory.internal import InternalEnergyTransport
+from .model import ANGSTROM, ForwardModel, default_internal_model
 from .result import PARAMETER_UNITS, FitResult, ParameterEstimate
 from .start import epsilon_bounds, starting_values
 
-__all__ = ["fit_least_squares", "SHAPE_BOUNDS", "SIGMA_BOUNDS_ANGSTROM", "diagnose"]
+__all__ = ["fit_least_squares", "resolve_internal", "SHAPE_BOUNDS", "SIGMA_BOUNDS_ANGSTROM", "diagnose"]
 
 SIGMA_BOUNDS_ANGSTROM = (1.0, 30.0)
 #: Bounds of free shape parameters: Mie repulsive exponent n, exp-6 steepness α.
@@ -31,6 +32,19 @@ SHAPE_START_GRID = {"n": (9.0, 12.0, 16.0, 24.0), "alpha": (12.0, 14.0, 16.0)}
 
 CORRELATION_WARNING = 0.98
 NARROW_RANGE_RATIO = 1.5
+
+
+def resolve_internal(internal, gas: Gas, data: FitData):
+    """The internal-energy model to fit with: see :func:`fit_least_squares`."""
+    if isinstance(internal, str):
+        if internal == "auto":
+            return default_internal_model(gas, "conductivity" in data.kinds)
+        internal = InternalEnergyTransport(internal)
+    if internal is not None and internal.name != "monatomic" and "conductivity" not in data.kinds \
+            and internal.parameter_names:
+        # nothing constrains the internal-transport parameters without conductivity data
+        internal = InternalEnergyTransport(internal.name, free=(), fixed=internal.fixed)
+    return internal
 
 
 def _residual_function(model: ForwardModel, data: FitData):
@@ -50,6 +64,7 @@ def _start(model: ForwardModel, data: FitData):
     best = None
     for combo in (np.array(np.meshgrid(*grids)).reshape(len(grids), -1).T if grids else [()]):
         shape = dict(zip(model.free_shape, combo))
+        shape.update({n: model.internal.defaults[n] for n in model.internal_names})
         try:
             sig, eps, chi2 = starting_values(model, data, shape)
         except FitError:
@@ -62,7 +77,8 @@ def _start(model: ForwardModel, data: FitData):
 
 
 def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(), order: int = 3,
-                      collision: str = "computed", fixed: dict | None = None) -> FitResult:
+                      collision: str = "computed", fixed: dict | None = None, internal="auto",
+                      polar: bool | None = None) -> FitResult:
     """Fit σ, ε/k (and any ``free_shape`` parameters) to ``data``.
 
     Parameters
@@ -74,6 +90,11 @@ def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(),
     order : Sonine approximation of the Chapman–Enskog solution.
     collision : "computed" or "neufeld" (see :class:`fitkin.theory.transport.TransportModel`).
     fixed : optional {"sigma": Å, "epsilon_over_k": K} held fixed at the given values.
+    internal : internal-energy conductivity model: an
+        :class:`~fitkin.theory.internal.InternalEnergyTransport`, a model name, None
+        (translational only) or "auto" (see :func:`~fitkin.inference.model.default_internal_model`).
+        Its free parameters are fitted with σ and ε/k.
+    polar : Stockmayer correction for the dipole moment (default: when the gas has one).
 
     Returns
     -------
@@ -89,7 +110,8 @@ def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(),
         lo_t, hi_t = TransportModel(potential, order=1, collision=collision).t_star_range
         fixed["epsilon_over_k"] = float(np.sqrt(data.temperature.min() / lo_t * data.temperature.max() / hi_t))
     model = ForwardModel(gas=gas, potential=potential, free_shape=tuple(free_shape), order=order,
-                         collision=collision)
+                         collision=collision, internal=resolve_internal(internal, gas, data),
+                         polar=gas.is_polar if polar is None else bool(polar))
     n_free = 2 + len(model.free_shape) - len(fixed)
     if len(data) <= n_free:
         raise FitError(f"{len(data)} points cannot determine {n_free} parameters; give more points")
@@ -104,6 +126,9 @@ def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(),
     for name in model.free_shape:
         lo, hi = SHAPE_BOUNDS.get(name, (-np.inf, np.inf))
         params.add(name, value=shape0[name], min=lo, max=hi)
+    for name in model.internal_names:
+        lo, hi = model.internal.bounds[name]
+        params.add(name, value=model.internal.defaults[name], min=lo, max=hi)
 
     try:
         out = lmfit.minimize(_residual_function(model, data), params, method="least_squares",
@@ -127,7 +152,7 @@ def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(),
     chi2 = float(np.sum(((prediction - data.value) / data.sigma_y) ** 2))
     result = FitResult(
         gas=gas,
-        model_settings={**model.transport(theta).describe(), "free_shape": list(model.free_shape),
+        model_settings={**model.transport(theta).describe(), **model.describe(), "free_shape": list(model.free_shape),
                         "weighting": "stated uncertainties" if data.weighted else "equal relative weights"},
         parameters=estimates, names=names, covariance=cov, chi2=chi2, dof=len(data) - len(names),
         weighted=data.weighted, success=bool(out.success), message=str(out.message),

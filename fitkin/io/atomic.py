@@ -10,6 +10,15 @@ from ..errors import OutputExistsError
 __all__ = ["write_text_atomic", "write_bytes_atomic", "check_can_write"]
 
 
+def _current_umask() -> int:
+    mask = os.umask(0)
+    os.umask(mask)
+    return mask
+
+
+_UMASK = _current_umask()
+
+
 def check_can_write(path: str | os.PathLike, force: bool = False) -> Path:
     """Raise :class:`OutputExistsError` if ``path`` exists and ``force`` is false."""
     p = Path(path)
@@ -24,6 +33,7 @@ def write_bytes_atomic(path: str | os.PathLike, data: bytes, force: bool = False
     p.parent.mkdir(parents=True, exist_ok=True)
     fd, tmp = tempfile.mkstemp(prefix=f".{p.name}.", suffix=".tmp", dir=p.parent)
     try:
+        os.chmod(tmp, 0o666 & ~_UMASK)  # mkstemp makes 0600; outputs are meant to be shared
         with os.fdopen(fd, "wb") as fh:
             fh.write(data)
             fh.flush()

@@ -74,6 +74,8 @@ def result_to_record(result, tables=(), t_star_range=None) -> dict:
                        "evaluations": result.evaluations},
         "theory": {"sonine_order": settings.get("sonine_order"),
                    "collision_integrals": settings.get("collision_integrals"),
+                   "internal_energy": settings.get("internal_energy"),
+                   "polar_correction": bool(settings.get("polar_correction", False)),
                    "t_star_range": list(t_star_range) if t_star_range else None},
         "data": {
             "files": [{"path": str(t.path), "sha256": t.sha256,
@@ -83,9 +85,10 @@ def result_to_record(result, tables=(), t_star_range=None) -> dict:
         },
         "residuals": [
             {"file": str(f), "row": int(r), "source": str(s), "property": str(k), "T_K": float(T),
-             "measured_SI": float(y), "model_SI": float(yh), "deviation_percent": float(d)}
-            for f, r, s, k, T, y, yh, d in zip(data.file, data.rows, data.source, data.kind, data.temperature,
-                                             data.value, result.prediction, dev)
+             "measured_SI": float(y), "uncertainty_SI": float(u), "model_SI": float(yh),
+             "deviation_percent": float(d)}
+            for f, r, s, k, T, y, u, yh, d in zip(data.file, data.rows, data.source, data.kind, data.temperature,
+                                                data.value, data.uncertainty, result.prediction, dev)
         ],
         "warnings": list(result.warnings),
         "provenance": {
