@@ -482,11 +482,11 @@ viscosity = ureg.Quantity(krypton.viscosity(t_kelvin), "Pa * s")
 conductivity = ureg.Quantity(krypton.conductivity(t_kelvin), "W / (m * K)")
 diffusion = ureg.Quantity(krypton.self_diffusion(t_kelvin, p=ureg.Quantity(2.0, "bar").to("Pa").magnitude), "m**2 / s")
 
-print("T:          ", t_process)
-print("viscosity:  ", viscosity.to("cP"))
-print("            ", viscosity.to("lbf * s / ft**2"))
-print("k:          ", conductivity.to("Btu / (hour * ft * degF)"))
-print("D at 2 bar: ", diffusion.to("cm**2 / s"))
+print(f"T:          {t_process.magnitude} °C = {t_process.to('K'):.5g~P}")
+print(f"viscosity:  {viscosity.to('cP'):.5g~P}")
+print(f"            {viscosity.to('lbf * s / ft**2'):.5g~P}")
+print(f"k:          {conductivity.to('Btu / (hour * ft * degF)'):.5g~P}")
+print(f"D at 2 bar: {diffusion.to('cm**2 / s'):.5g~P}")
 """),
     _md(r"""
 ## 4. A binary mixture: krypton with argon
@@ -532,8 +532,9 @@ plt.show()
 print(f"largest effect of k12 = 0.03 on μ_mix: {100 * np.max(np.abs(mu_mix_k12 / mu_mix - 1)):.2f} %")
 """),
     _md(r"""
-The viscosity of the mixture passes through a maximum between the pure gases, while the
-conductivity falls steadily towards the heavier, less conductive krypton. The combining rules
+The viscosity of the mixture lies above the straight line between the two pure gases, while
+the conductivity falls steadily towards that of the heavier, less conductive krypton. A change of
+3 % in ε12 moves the mixture viscosity by about half a percent. The combining rules
 are an assumption: when mixture data exist, check them (or fit `k12`) before trusting the
 unlike interaction. The mixture results carry no band; the uncertainty of the pure-gas
 parameters is not propagated here.
@@ -584,7 +585,7 @@ d_300 = float(s.diameter[np.argmin(np.abs(s.temperature - 300.0))])
 m_molecule = krypton.gas.molar_mass / constants.N_A
 for p in (101325.0, 1000.0, 1.0):
     lam = elementary.mean_free_path(d_300, elementary.number_density(p, 300.0))
-    print(f"p = {p:9.1f} Pa: λ = {lam * 1e6:10.4f} µm")
+    print(f"p = {p:9.1f} Pa: λ = {ureg.Quantity(lam, 'm').to_compact():.3g~P}")
 print(f"v̄(300 K) = {elementary.mean_speed(300.0, m_molecule):.1f} m/s;  "
       f"⅓ρv̄λ = {elementary.elementary_viscosity(300.0, m_molecule, d_300) * 1e6:.3f} µPa s "
       f"against the fit's {krypton.viscosity(300.0)[0] * 1e6:.3f} µPa s")
