@@ -152,6 +152,8 @@ class LogLikelihood:
         sigma, eps = x[:, 0], x[:, 1]
         ok = np.all(np.isfinite(x), axis=1) & (sigma > 0) & (eps > 0)
         tmin, tmax = self._T.min(), self._T.max()
+        if self.model.extended:
+            return self._predict_each(x, ok, out)
         if not self.model.free_shape:
             tm = self.model.transport(None)
             lo, hi = tm.t_star_range
@@ -174,6 +176,32 @@ class LogLikelihood:
                 if not (lo <= tmin / eps[w] and tmax / eps[w] <= hi):
                     continue
                 out[w] = self._flat(tm, np.array([sigma[w] * ANGSTROM]), np.array([eps[w]]), 1)[0]
+                self.evaluations += 1
+            except (OutOfRangeError, FitError):
+                continue
+        return out
+
+    def _predict_each(self, x, ok, out) -> np.ndarray:
+        """Through :meth:`ForwardModel.property`: the path for models beyond the translational
+        formulas. Without a polar correction (and without free shape parameters) every walker
+        is evaluated in one flat call; otherwise walker by walker."""
+        idx = np.flatnonzero(ok)
+        if idx.size and not self.model.polar and not self.model.free_shape:
+            try:
+                rows = idx.size
+                for kind, m in self._kinds:
+                    nk = int(m.sum())
+                    theta = {n: np.repeat(x[idx, j], nk) for j, n in enumerate(self.physical_names)}
+                    flat = self.model.property(kind, theta, np.tile(self._T[m], rows), np.tile(self._p[m], rows))
+                    out[np.ix_(idx, np.flatnonzero(m))] = np.asarray(flat, dtype=float).reshape(rows, nk)
+                self.evaluations += rows
+                return out
+            except (OutOfRangeError, FitError):
+                out[idx] = np.nan  # fall back to walker by walker
+        for w in np.flatnonzero(ok):
+            theta = dict(zip(self.physical_names, x[w, :len(self.physical_names)]))
+            try:
+                out[w] = self.model.predict(theta, self.data)
                 self.evaluations += 1
             except (OutOfRangeError, FitError):
                 continue

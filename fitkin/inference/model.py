@@ -117,8 +117,10 @@ class ForwardModel:
     def property(self, kind: str, theta: dict, T, pressure=None) -> np.ndarray:
         """One property ('viscosity', 'conductivity', 'self_diffusion') at temperatures T (K), SI."""
         tm = self.transport(theta)
-        sigma = float(theta["sigma"]) * ANGSTROM
-        eps = float(theta["epsilon_over_k"])
+        # σ, ε/k and internal parameters may be arrays of the shape of T (one value per point):
+        # the likelihood evaluates many parameter sets in one call this way
+        sigma = np.asarray(theta["sigma"], dtype=float) * ANGSTROM
+        eps = np.asarray(theta["epsilon_over_k"], dtype=float)
         M = self.gas.molar_mass
         T = np.asarray(T, dtype=float)
         if kind == "self_diffusion" and pressure is None:
@@ -128,7 +130,7 @@ class ForwardModel:
                 return tm.self_diffusion(T, pressure, M, sigma, eps)
             return tm.property(kind, T, M, sigma, eps)
         internal = self.internal or InternalEnergyTransport("monatomic")
-        params = {n: float(theta[n]) for n in self.internal_names}
+        params = {n: np.asarray(theta[n], dtype=float) for n in self.internal_names}
         res = transport_with_internal_energy(tm, internal, T, self.gas, sigma, eps, params, polar=self.polar)
         if kind == "self_diffusion":
             rho = np.asarray(pressure, dtype=float) * M / (constants.R * T)

@@ -206,7 +206,8 @@ def _posterior_warnings(post_samples, names, prior: PriorSet, diagnostics, lik) 
         lo, hi = prior.priors[n].support
         x = post_samples[:, j]
         if math.isfinite(lo) and math.isfinite(hi):
-            edge = 0.01 * (hi - lo)
+            # near the bound on the scale of the posterior itself (a wide prior range is no edge)
+            edge = min(0.01 * (hi - lo), 0.25 * float(np.std(x)))
             frac = max(np.mean(x < lo + edge), np.mean(x > hi - edge))
             if frac > 0.05:
                 warn.append(f"{100 * frac:.0f} % of the draws of {n} lie at the edge of its prior "
@@ -224,7 +225,7 @@ def sample_posterior(data: FitData, gas: Gas, potential=None, *, free_shape=(), 
                      likelihood: str = "gaussian", nu: float = 4.0, extra_scatter: bool = False,
                      calibrate_sources: dict | None = None, walkers: int | None = None,
                      max_steps: int = 20000, seed: int | None = None, progress: bool = False,
-                     start=None, progress_stream=None) -> Posterior:
+                     start=None, progress_stream=None, internal="auto", polar: bool | None = None) -> Posterior:
     """Sample the posterior of σ (Å), ε/k (K), free shape and nuisance parameters.
 
     Parameters
@@ -240,6 +241,8 @@ def sample_posterior(data: FitData, gas: Gas, potential=None, *, free_shape=(), 
     walkers : ensemble size (default max(32, 8·dim), even).
     max_steps : the step limit.   seed : random seed (drawn and recorded when None).
     progress : show a progress line on stderr.   start : a FitResult to start from.
+    internal, polar : internal-energy conductivity model and polar correction, as for
+        :func:`~fitkin.inference.leastsq.fit_least_squares`.
 
     Returns
     -------
@@ -254,10 +257,14 @@ def sample_posterior(data: FitData, gas: Gas, potential=None, *, free_shape=(), 
     if not (isinstance(max_steps, int) and max_steps >= 100):
         raise FitError(f"max_steps must be a whole number ≥ 100, got {max_steps!r}")
     if start is None:
-        start = fit_least_squares(data, gas, potential, free_shape=free_shape, order=order, collision=collision)
+        start = fit_least_squares(data, gas, potential, free_shape=free_shape, order=order, collision=collision,
+                                  internal=internal, polar=polar)
     seed = int(np.random.SeedSequence().entropy % 2**32) if seed is None else int(seed)
     rng = np.random.default_rng(seed)
-    model = ForwardModel(gas=gas, potential=potential, free_shape=tuple(free_shape), order=order, collision=collision)
+    from .leastsq import resolve_internal
+    model = ForwardModel(gas=gas, potential=potential, free_shape=tuple(free_shape), order=order, collision=collision,
+                         internal=resolve_internal(internal, gas, data),
+                         polar=gas.is_polar if polar is None else bool(polar))
     lik = LogLikelihood(model, data, form=likelihood, nu=nu, extra_scatter=extra_scatter,
                         calibrate_sources=calibrate_sources)
     warnings = [f"least-squares start: {w}" for w in start.warnings]

@@ -178,7 +178,7 @@ class InternalEnergyTransport:
         for k, v in (params or {}).items():
             if k not in values:
                 raise FitkinError(f"model '{self.name}' has no parameter '{k}'")
-            values[k] = float(v)
+            values[k] = np.asarray(v, dtype=float)  # arrays allowed: one value per point
         T = np.asarray(T, dtype=float)
         mu = np.asarray(viscosity, dtype=float)
         if self.name == "monatomic":
