@@ -28,11 +28,18 @@ _EPILOG_FIT = """examples:
   fitkin fit visc.csv cond.csv --molar-mass "83.798 g/mol" --name krypton --out fit-kr
   fitkin fit visc.csv --formula Ar --property viscosity --order 2 --out fit2 --force
   fitkin fit visc.csv --formula Ar --potential lj,mie,exp6 --out compare
+  fitkin fit visc.csv cond.csv --gas co2.toml --out fit-co2
+  fitkin fit visc.csv --formula Ar --sample --seed 7 --calibrate lab-B=1% --out fit-post
 """
 _EPILOG_PREDICT = """examples:
   fitkin predict fit-argon/parameters.json --temperatures 200:1000:100
   fitkin predict fit-argon/parameters.json --temperatures 300,400,500 --pressure "1 bar" --out table.csv
   fitkin predict fit-argon/parameters.json --temperatures 250:350:25 --band 0.95 --format json
+  fitkin predict fit-argon/parameters.json -T 300:600:100 --with fit-helium/parameters.json --x1 0.25,0.5
+"""
+_EPILOG_REPORT = """examples:
+  fitkin report fit-argon/parameters.json
+  fitkin report fit-argon/parameters.json --out /tmp/argon-report --force
 """
 _EPILOG_DEMO = """examples:
   fitkin demo                       (writes ./fitkin-demo/)
@@ -67,6 +74,8 @@ def build_parser() -> argparse.ArgumentParser:
     gas = p.add_mutually_exclusive_group(required=True)
     gas.add_argument("--formula", help="chemical formula of the gas, e.g. Ar, Kr, SF6")
     gas.add_argument("--molar-mass", metavar="M", help="molar mass with unit, e.g. '39.948 g/mol'")
+    gas.add_argument("--gas", metavar="FILE", help="gas description file (TOML; heat capacity, dipole moment, "
+                                                   "critical constants; see docs/gas-file.md)")
     p.add_argument("--name", help="name of the gas in outputs (default: the formula)")
     p.add_argument("--out", required=True, metavar="DIR", help="folder for parameters.json and the report")
     p.add_argument("--force", action="store_true", help="replace existing outputs in DIR")
@@ -81,6 +90,34 @@ def build_parser() -> argparse.ArgumentParser:
     p.add_argument("--collision", choices=("computed", "neufeld"), default="computed",
                    help="collision integrals computed from the potential (default) or the Neufeld et al. "
                         "(1972) correlation (Lennard-Jones, order 1 only)")
+    poly = p.add_argument_group("polyatomic and polar gases")
+    poly.add_argument("--conductivity-model", default="auto",
+                      help="internal-energy transport: monatomic, eucken, modified_eucken, eucken_diffusion, "
+                           "mason_monchick (default auto: monatomic for one atom, else mason_monchick when the "
+                           "gas file gives the molecule's geometry)")
+    poly.add_argument("--fit-internal", metavar="NAMES",
+                      help="internal-transport parameters to fit: comma list (e.g. z_rot_inf,"
+                           "rotational_diffusion_factor), 'all' or 'none'")
+    poly.add_argument("--no-polar", action="store_true",
+                      help="do not apply the Stockmayer correction even though the gas has a dipole moment")
+    samp = p.add_argument_group("posterior sampling")
+    samp.add_argument("--sample", action="store_true", help="sample the posterior with emcee after the fit")
+    samp.add_argument("--walkers", type=int, help="ensemble size (default max(32, 8 × parameters))")
+    samp.add_argument("--max-steps", type=int, default=20000, help="step limit (default 20000)")
+    samp.add_argument("--seed", type=int, help="random seed (default: drawn, and recorded)")
+    samp.add_argument("--extra-scatter", action="store_true", help="fit an unknown relative extra scatter")
+    samp.add_argument("--student-t", action="store_true", help="heavy-tailed likelihood, robust to outliers")
+    samp.add_argument("--calibrate", action="append", default=[], metavar="SOURCE=U",
+                      help="a calibration factor for SOURCE with relative systematic uncertainty U "
+                           "(e.g. wire-B=0.02 or wire-B=2%%)")
+    samp.add_argument("--prior", action="append", default=[], metavar="NAME=KIND:ARGS",
+                      help="prior, e.g. sigma=gaussian:3.4,0.1  epsilon_over_k=loguniform:50,500")
+    samp.add_argument("--critical", metavar="CONSTANTS",
+                      help="corresponding-states prior from critical constants, e.g. 'Tc=150.7 K, Pc=4.86 MPa'")
+    rep = p.add_argument_group("report")
+    rep.add_argument("--no-report", action="store_true", help="do not write DIR/report.html")
+    rep.add_argument("--report-pressure", default="101325 Pa",
+                     help="pressure for the mean free path in the report (default 101325 Pa)")
 
     p = sub.add_parser("predict", help="tabulate μ, k and D from a parameter file",
                        epilog=_EPILOG_PREDICT, formatter_class=argparse.RawDescriptionHelpFormatter)
@@ -90,8 +127,23 @@ def build_parser() -> argparse.ArgumentParser:
     p.add_argument("--pressure", default="101325 Pa", help="pressure for D (default 101325 Pa)")
     p.add_argument("--band", type=float, metavar="P", help="add a central uncertainty band of probability P, e.g. 0.95")
     p.add_argument("--format", choices=("csv", "json"), default="csv")
+    mix = p.add_argument_group("binary mixture with a second fitted gas")
+    mix.add_argument("--with", dest="with_gas", metavar="OTHER.json",
+                     help="parameter file of a second gas: adds its binary diffusion coefficient with this gas")
+    mix.add_argument("--x1", metavar="LIST", help="mole fractions of this gas for mixture viscosities, e.g. 0.25,0.5")
+    mix.add_argument("--sigma12", help="unlike-pair σ12 (default Lorentz: mean), e.g. '3.6 angstrom'")
+    mix.add_argument("--epsilon12", help="unlike-pair ε12/k (default Berthelot: geometric mean), e.g. '150 K'")
+    mix.add_argument("--k12", type=float, default=0.0, help="ε12 = (1 − k12)√(ε1 ε2) (default 0)")
+    mix.add_argument("--pair-shape", help="potential of the unlike pair when the two fits used different shapes")
     p.add_argument("--out", metavar="FILE", help="write here instead of standard output")
     p.add_argument("--force", action="store_true", help="replace an existing FILE")
+
+    p = sub.add_parser("report", help="write the HTML report of a saved fit, without refitting",
+                       epilog=_EPILOG_REPORT, formatter_class=argparse.RawDescriptionHelpFormatter)
+    p.add_argument("parameters", metavar="PARAMETERS.json")
+    p.add_argument("--out", metavar="DIR", help="folder for report.html and figures/ (default: beside the file)")
+    p.add_argument("--force", action="store_true", help="replace an existing report")
+    p.add_argument("--pressure", default="101325 Pa", help="pressure for the mean free path (default 101325 Pa)")
 
     p = sub.add_parser("demo", help="make the synthetic sample data and fit it, end to end",
                        epilog=_EPILOG_DEMO, formatter_class=argparse.RawDescriptionHelpFormatter)

@@ -41,7 +41,9 @@ class FittedGas:
     Pa s, W/(m K), m²/s.
 
     With ``band=0.95`` (any central probability), a method returns (median, lower, upper)
-    from parameter draws out of the fit's covariance (seeded, :data:`BAND_DRAWS` draws).
+    from parameter draws: the posterior samples when the fit was sampled, otherwise Gaussian
+    draws from the least-squares covariance (seeded, :data:`BAND_DRAWS` draws); see
+    :attr:`band_source`. Mixtures with a second fitted gas: :class:`fitkin.mixture.GasPair`.
     """
 
     record: dict
@@ -98,6 +100,15 @@ class FittedGas:
         return self._forward.property(kind, theta, T, pressure)
 
     @property
+    def band_source(self) -> str:
+        """'posterior samples' when the fit was sampled and its samples file is known, else
+        'covariance' (Gaussian draws from the least-squares covariance)."""
+        post = self.record.get("posterior") or {}
+        if (post.get("samples") or {}).get("file") and self.path is not None:
+            return "posterior samples"
+        return "covariance"
+
+    @property
     def has_conductivity_model(self) -> bool:
         """False for a polyatomic gas fitted without an internal-energy conductivity model."""
         from .inference.model import is_monatomic
@@ -116,6 +127,12 @@ class FittedGas:
             return self._evaluate(kind, self._theta(), T, pressure)
         if not 0 < band < 1:
             raise FitkinError(f"band must be a probability between 0 and 1, got {band}")
+        if self.band_source == "posterior samples":
+            from pathlib import Path
+            from .inference.posterior import posterior_draws, predictive_band
+            draws = posterior_draws(self.record, Path(self.path).parent, max_draws=BAND_DRAWS)
+            return predictive_band(draws, kind, T, self._evaluate, band=band, pressure=pressure,
+                                   max_draws=BAND_DRAWS)
         draws = np.array([self._evaluate(kind, th, T, pressure) for th in self._draws(BAND_DRAWS)])
         q = 0.5 - band / 2, 0.5, 0.5 + band / 2
         lo, med, hi = np.quantile(draws, q, axis=0)

@@ -33,7 +33,7 @@ __all__ = ["sample_posterior", "initial_ensemble", "BURN_IN_TAU", "RIDGE_CORRELA
 #: Discarded burn-in, in autocorrelation times (common practice: a few τ).
 BURN_IN_TAU = 5
 #: |corr(σ, ε/k)| above which the posterior is reported as a ridge.
-RIDGE_CORRELATION = 0.95
+RIDGE_CORRELATION = 0.98  # the same threshold as the least-squares warning (leastsq.CORRELATION_WARNING)
 #: Two sources whose mean offsets differ by more than this many combined standard
 #: uncertainties (including calibration widths) contradict each other (common practice).
 CONTRADICTION_Z = 10.0

@@ -1,0 +1,123 @@
+"""``fitkin predict``: property tables from a parameter file, with bands and mixtures."""
+from __future__ import annotations
+
+import json
+
+import numpy as np
+
+from ..errors import FitkinError
+
+__all__ = ["parse_temperatures", "prediction_table", "run_predict"]
+
+
+def parse_temperatures(text: str) -> np.ndarray:
+    """'300,400' or 'start:stop:step' (stop included) → array of K."""
+    try:
+        if ":" in text:
+            parts = [float(x) for x in text.split(":")]
+            if len(parts) != 3 or parts[2] <= 0 or parts[1] < parts[0]:
+                raise ValueError
+            start, stop, step = parts
+            n = int(np.floor((stop - start) / step + 1e-9)) + 1
+            if n > 100000:
+                raise FitkinError(f"--temperatures '{text}' asks for {n} temperatures; at most 100000")
+            values = start + step * np.arange(n)
+        else:
+            values = np.array([float(x) for x in text.split(",") if x.strip()])
+    except ValueError:
+        raise FitkinError(f"--temperatures expects kelvin as '300,400,500' or 'start:stop:step', got '{text}'") from None
+    if values.size == 0 or np.any(~np.isfinite(values)) or np.any(values <= 0):
+        raise FitkinError(f"--temperatures must be positive kelvin values, got '{text}'")
+    return values
+
+
+def _with_band(cols, header, values, band):
+    if band is None:
+        cols.append((header, values))
+        return
+    med, lo, hi = values
+    name, unit = header.rsplit(" [", 1)
+    cols += [(header, med), (f"{name} lower {band:g} [{unit}", lo), (f"{name} upper {band:g} [{unit}", hi)]
+
+
+def prediction_table(gas, T, pressure, band=None, pair=None, x1=None):
+    """Columns of predictions: list of (header with unit, values) in display units.
+
+    ``pair`` (a :class:`fitkin.mixture.GasPair` with this gas first) adds the binary
+    diffusion coefficient and, for each mole fraction in ``x1``, the mixture viscosity.
+    """
+    cols = [("T [K]", T)]
+    specs = [("viscosity", "viscosity [uPa s]", 1e6, {}),
+             ("conductivity", "thermal conductivity [mW/(m K)]", 1e3, {}),
+             ("self_diffusion", f"self-diffusion at {pressure:g} Pa [cm^2/s]", 1e4, {"pressure": pressure})]
+    for kind, header, scale, kw in specs:
+        if kind == "conductivity" and not gas.has_conductivity_model:
+            continue  # a polyatomic gas fitted without internal-energy model: said in the comment line
+        res = gas.predict(kind, T, band=band, **kw)
+        _with_band(cols, header, tuple(r * scale for r in res) if band is not None else res * scale, band)
+    if pair is not None:
+        cols.append((f"binary diffusion with {pair.names[1]} at {pressure:g} Pa [cm^2/s]",
+                     pair.binary_diffusion(T, pressure) * 1e4))
+        for x in (x1 if x1 is not None else ()):
+            cols.append((f"mixture viscosity x({gas.gas.name}) = {x:g} [uPa s]", pair.viscosity(T, x) * 1e6))
+    lo_T, hi_T = gas.temperature_range
+    cols.append(("extrapolated", np.where((T < lo_T) | (T > hi_T), "yes", "no")))
+    return cols
+
+
+def _pair(args, gas):
+    if not args.with_gas:
+        if args.x1:
+            raise FitkinError("--x1 gives mole fractions of a mixture: name the second gas with --with OTHER.json")
+        return None, None
+    from ..fitted import load_parameters
+    from ..mixture import GasPair
+    from ..units import parse_quantity
+    sigma12 = parse_quantity(args.sigma12, "m", name="--sigma12", default_unit="angstrom") if args.sigma12 else None
+    eps12 = parse_quantity(args.epsilon12, "K", name="--epsilon12", default_unit="K") if args.epsilon12 else None
+    pair = GasPair(gas, load_parameters(args.with_gas), sigma12=sigma12, epsilon12_over_k=eps12, k12=args.k12,
+                   shape=args.pair_shape)
+    x1 = None
+    if args.x1:
+        try:
+            x1 = [float(v) for v in args.x1.split(",") if v.strip()]
+        except ValueError:
+            raise FitkinError(f"--x1 expects mole fractions such as 0.25,0.5, got '{args.x1}'") from None
+    return pair, x1
+
+
+def run_predict(args, out) -> int:
+    from ..fitted import load_parameters
+    from ..io.atomic import check_can_write, write_text_atomic
+    from ..units import parse_quantity
+    if args.out:
+        check_can_write(args.out, args.force)
+    gas = load_parameters(args.parameters)
+    T = parse_temperatures(args.temperatures)
+    p = parse_quantity(args.pressure, "Pa", name="--pressure")
+    pair, x1 = _pair(args, gas)
+    cols = prediction_table(gas, T, p, band=args.band, pair=pair, x1=x1)
+    notes = []
+    if args.band is not None:
+        notes.append(f"bands from {gas.band_source}")
+    if not gas.has_conductivity_model:
+        notes.append("no conductivity: polyatomic gas fitted without an internal-energy model")
+    if args.format == "json":
+        doc = {"source": str(args.parameters), "gas": gas.gas.name, "notes": notes,
+               "columns": {h: v.tolist() for h, v in cols}}
+        if pair is not None:
+            doc["mixture"] = pair.describe()
+        text = json.dumps(doc, indent=2, ensure_ascii=False, default=str) + "\n"
+    else:
+        lines = [f"# predictions of fitkin from {args.parameters}; gas {gas.gas.name}; measured range "
+                 f"{gas.temperature_range[0]:.1f}-{gas.temperature_range[1]:.1f} K" + "".join(f"; {n}" for n in notes),
+                 ",".join(h for h, _ in cols)]
+        for i in range(len(T)):
+            lines.append(",".join(v[i] if isinstance(v[i], str) else f"{v[i]:.6g}" for _, v in cols))
+        text = "\n".join(lines) + "\n"
+    if args.out:
+        write_text_atomic(args.out, text, force=args.force)
+        print(f"wrote {len(T)} rows to {args.out}", file=out)
+    else:
+        out.write(text)
+    return 0

@@ -1,0 +1,35 @@
+"""``fitkin check``, and reading the tables named on any command line."""
+from __future__ import annotations
+
+from ..errors import InputError
+
+__all__ = ["read_from_args", "run_check"]
+
+
+def _unit_overrides(items: list[str]) -> dict[str, str]:
+    out = {}
+    for item in items:
+        if "=" not in item:
+            raise InputError(f"--unit expects QUANTITY=UNIT, e.g. T=degC, got '{item}'")
+        name, unit = item.split("=", 1)
+        out[name.strip()] = unit.strip()
+    return out
+
+
+def read_from_args(args):
+    """The MeasuredTables of ``args.files`` with the sheet, unit and pressure-limit options."""
+    from ..io import read_tables
+    from ..units import parse_quantity
+    limit = parse_quantity(args.pressure_limit, "Pa", name="--pressure-limit")
+    return read_tables(args.files, sheet=args.sheet, units=_unit_overrides(args.unit) or None,
+                       pressure_limit=limit)
+
+
+def run_check(args, out) -> int:
+    """Print what was read from each file; problems raise and end with a non-zero exit."""
+    from ..io import describe_table
+    tables = read_from_args(args)
+    for table in tables:
+        print("\n".join(describe_table(table)), file=out)
+    print(f"{len(tables)} file(s) read without errors.", file=out)
+    return 0
