@@ -101,12 +101,15 @@ class FittedGas:
 
     @property
     def band_source(self) -> str:
-        """'posterior samples' when the fit was sampled and its samples file is known, else
-        'covariance' (Gaussian draws from the least-squares covariance)."""
+        """'posterior samples' when the fit was sampled and its samples file lies beside the
+        parameter file (a changed file is refused when read), else 'covariance' (Gaussian draws
+        from the least-squares covariance)."""
+        from pathlib import Path
         post = self.record.get("posterior") or {}
-        if (post.get("samples") or {}).get("file") and self.path is not None:
+        name = (post.get("samples") or {}).get("file")
+        if name and self.path is not None and (Path(self.path).parent / name).is_file():
             return "posterior samples"
-        return "covariance"
+        return "covariance"  # not sampled, or the samples file was not kept beside the parameter file
 
     @property
     def has_conductivity_model(self) -> bool:
