@@ -44,9 +44,11 @@ def test_sampled_fit_writes_samples_report_and_posterior(sampled_fit):
     assert post["samples"]["file"] == "samples.npz" and (sampled_fit / "samples.npz").is_file()
     assert (sampled_fit / "report.html").is_file()
     # posterior median close to the least-squares value on a well-posed problem (common practice)
-    med = post["summary"]["sigma"]["median"] if "summary" in post else None
-    if med is not None:
-        assert med == pytest.approx(rec["parameters"]["sigma"]["value"], rel=5e-3)
+    assert post["converged"] and post["seed"] == 11
+    for name in ("sigma", "epsilon_over_k"):
+        p = post["parameters"][name]
+        assert p["p2_5"] < p["p16"] < p["median"] < p["p84"] < p["p97_5"]
+        assert p["median"] == pytest.approx(rec["parameters"][name]["value"], rel=5e-3)
 
 
 def test_predict_bands_come_from_the_samples(sampled_fit, capsys):
