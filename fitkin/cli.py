@@ -68,7 +68,7 @@ def build_parser() -> argparse.ArgumentParser:
                        epilog=_EPILOG_CHECK, formatter_class=argparse.RawDescriptionHelpFormatter)
     _add_table_options(p)
 
-    p = sub.add_parser("fit", help="fit potential parameters to tables and write DIR/parameters.json",
+    p = sub.add_parser("fit", help="fit potential parameters to tables; writes DIR/parameters.json and DIR/report.html",
                        epilog=_EPILOG_FIT, formatter_class=argparse.RawDescriptionHelpFormatter)
     _add_table_options(p)
     gas = p.add_mutually_exclusive_group(required=True)
@@ -91,7 +91,7 @@ def build_parser() -> argparse.ArgumentParser:
                    help="collision integrals computed from the potential (default) or the Neufeld et al. "
                         "(1972) correlation (Lennard-Jones, order 1 only)")
     poly = p.add_argument_group("polyatomic and polar gases")
-    poly.add_argument("--conductivity-model", default="auto",
+    poly.add_argument("--conductivity-model", default="auto", metavar="MODEL",
                       help="internal-energy transport: monatomic, eucken, modified_eucken, eucken_diffusion, "
                            "mason_monchick (default auto: monatomic for one atom, else mason_monchick when the "
                            "gas file gives the molecule's geometry)")
