@@ -9,14 +9,23 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-__all__ = ["PROPERTY_KINDS", "SI_UNITS", "PropertySeries", "MeasuredTable", "combine_series"]
+__all__ = ["PROPERTY_KINDS", "SI_UNITS", "SIGNED_KINDS", "PRESSURE_KINDS", "PropertySeries",
+           "MeasuredTable", "combine_series"]
 
 #: Property kinds fitkin can read and fit, with their SI units.
 SI_UNITS = {
     "viscosity": "Pa s",
     "conductivity": "W/(m K)",
+    "self_diffusion": "m^2/s",
+    "second_virial": "m^3/mol",
 }
 PROPERTY_KINDS = tuple(SI_UNITS)
+#: Kinds whose values may be zero or negative (B(T) changes sign at the Boyle temperature):
+#: relative deviations and relative weights mean nothing for them.
+SIGNED_KINDS = ("second_virial",)
+#: Kinds whose value depends on the pressure of the measurement (D ∝ 1/p in a dilute gas),
+#: so every point needs its pressure.
+PRESSURE_KINDS = ("self_diffusion",)
 
 
 @dataclass(frozen=True)
@@ -27,9 +36,11 @@ class PropertySeries:
     ----------
     kind : one of :data:`PROPERTY_KINDS`.
     temperature : (n,) K.
-    value : (n,) SI (Pa s for viscosity, W/(m K) for conductivity).
+    value : (n,) SI (Pa s for viscosity, W/(m K) for conductivity, m²/s for self-diffusion,
+        m³/mol for the second virial coefficient).
     uncertainty : (n,) absolute standard uncertainty u(value) in SI; NaN where not stated.
-    pressure : (n,) Pa; NaN where not stated.
+    pressure : (n,) Pa; NaN where not stated (always stated for :data:`PRESSURE_KINDS`
+        when read by :func:`fitkin.io.read_table`).
     source : (n,) str labels of the instrument or paper; the file name where no column gives one.
     rows : (n,) int, the row of each point in its file, as a text editor or spreadsheet shows it.
     file : the file's path as given.

@@ -15,12 +15,15 @@ from fitkin.errors import InputError
 from fitkin.io import validate
 from fitkin.io.headers import ColumnSpec, column_letter
 from fitkin.io.numbers import CellValueError, detect_decimal_comma, is_blank, parse_number
-from fitkin.measurements import PROPERTY_KINDS, PropertySeries
+from fitkin.measurements import PRESSURE_KINDS, PROPERTY_KINDS, PropertySeries
 
-__all__ = ["TableAssembler", "MAX_CELL_PROBLEMS"]
+__all__ = ["TableAssembler", "MAX_CELL_PROBLEMS", "DIFFUSION_REFERENCE_PRESSURE"]
 
 #: Non-numeric cells listed one by one per column; the rest are summarised in one problem.
 MAX_CELL_PROBLEMS = 10
+#: Pa; the plausible range of a self-diffusion coefficient is stated for D scaled to this
+#: pressure (p D is independent of pressure in a dilute gas).
+DIFFUSION_REFERENCE_PRESSURE = 1.0e5
 
 
 class TableAssembler:
@@ -32,14 +35,17 @@ class TableAssembler:
     specs : the header's column specs.
     body : the data rows as (row number, cells).
     pressure_limit : Pa, or None.
+    default_pressure : Pa, or None; the pressure of points whose row states none (the kinds
+        of :data:`~fitkin.measurements.PRESSURE_KINDS` need one).
 
     After :meth:`run`: ``series`` (one PropertySeries per property with values, in the order
     of PROPERTY_KINDS), ``problems`` (InputErrors) and ``warnings`` (str).
     """
 
     def __init__(self, file: str, specs: list[ColumnSpec], body: list[tuple[int, list]],
-                 pressure_limit: float | None):
+                 pressure_limit: float | None, default_pressure: float | None = None):
         self.file = file
+        self.default_pressure = default_pressure
         self.specs = specs
         self.body = body
         self.rows = np.array([r for r, _ in body], dtype=int)
@@ -83,11 +89,20 @@ class TableAssembler:
             self._check_temperature_present(temperature, values, kelvin, spec)
             if kind not in si:
                 continue
-            self.problems += validate.check_positive(spec, values, si[kind], self.rows, self.file)
-            self.problems += validate.check_plausible(spec, values, si[kind], self.rows, self.file)
+            if spec.kind.positive:
+                self.problems += validate.check_positive(spec, values, si[kind], self.rows, self.file)
+            point_pressure = pressure
+            if kind in PRESSURE_KINDS:
+                point_pressure = self._pressure_of_points(spec, values, pressure, quantities)
+                scale = point_pressure / DIFFUSION_REFERENCE_PRESSURE
+                self.problems += validate.check_plausible(
+                    spec, values, si[kind], self.rows, self.file, scale=scale,
+                    scaled_to=f"at {DIFFUSION_REFERENCE_PRESSURE / 1e6:g} MPa")
+            else:
+                self.problems += validate.check_plausible(spec, values, si[kind], self.rows, self.file)
             u_spec = self._uncertainty_spec(kind)
             u_si = self._uncertainty(u_spec, raw, si[kind], spec)
-            self._add_series(spec, kelvin, si[kind], u_si, u_spec, pressure, sources)
+            self._add_series(spec, kelvin, si[kind], u_si, u_spec, point_pressure, sources)
         for spec in numeric:
             if spec.role == "uncertainty" and spec.kind.role != "property" and spec.unit is not None:
                 self._unused_uncertainty(spec, raw, si)
@@ -160,6 +175,33 @@ class TableAssembler:
             self.warnings.append(warning)
         return pascal
 
+    def _pressure_of_points(self, spec, values, pressure, quantities) -> np.ndarray:
+        """The pressure of each point of a pressure-dependent kind (D ∝ 1/p): the row's own,
+        else the caller's default; a problem for every stated value left without one."""
+        p = np.array(pressure, dtype=float)
+        if self.default_pressure is not None:
+            p = np.where(np.isfinite(p), p, self.default_pressure)
+        missing = np.isfinite(values) & ~np.isfinite(p)
+        if not missing.any():
+            return p
+        column = quantities.get("pressure")
+        why = (f"a {spec.kind.label} depends on pressure (D ∝ 1/p in a dilute gas), so every "
+               "point needs the pressure it was measured at")
+        if column is None:
+            self.problems.append(InputError(
+                f"column '{spec.header}' holds {spec.kind.label} values but the table has no pressure "
+                f"column; {why}", file=self.file, row=int(self.rows[np.argmax(missing)]), column=spec.header,
+                hint="add a pressure column, e.g. 'p [kPa]' (a 'p' column whose header has no unit needs "
+                "one given: units={'p': 'kPa'}, on the command line --unit p=kPa); or, when every point "
+                "was measured at one pressure, pass it in Pa as read_table(..., default_pressure=...)"))
+        elif column.unit is not None:
+            self.problems.append(InputError(
+                f"no pressure for the {spec.kind.label} value ({validate.format_rows(self.rows[missing])}); "
+                f"{why}", file=self.file, row=int(self.rows[np.argmax(missing)]), column=column.header,
+                hint="fill in the pressure of these rows, or pass a default in Pa as "
+                "read_table(..., default_pressure=...)"))
+        return p
+
     def _sources(self) -> np.ndarray:
         default = Path(self.file).stem
         labels = np.full(len(self.rows), default, dtype=object)
@@ -195,6 +237,14 @@ class TableAssembler:
         if u_spec is None or u_spec.unit is None:
             return np.full(len(self.rows), np.nan)
         u_raw = raw[u_spec.index]
+        if u_spec.relative and not spec.kind.positive:
+            self.problems.append(InputError(
+                f"'{u_spec.header}' gives a relative uncertainty, but a {spec.kind.label} changes sign "
+                "and can be zero, where a percentage means nothing", file=self.file,
+                row=int(self.rows[0]) if len(self.rows) else None, column=u_spec.header,
+                hint=f"give u(...) in a unit of {spec.kind.label}, e.g. '{u_spec.header.split('[')[0].strip()} "
+                f"[{spec.kind.common_units[0]}]'"))
+            return np.full(len(self.rows), np.nan)
         if u_spec.relative:
             u_si = u_raw / 100.0 * np.abs(value_si)
         else:

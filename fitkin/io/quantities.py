@@ -3,8 +3,7 @@
 One :class:`QuantityKind` entry says everything the readers need about a column's quantity:
 the names labs give it, its SI unit (which fixes the dimension), whether it must be positive,
 the range a dilute gas can plausibly show, and the common units used to guess a unit slip.
-Adding a kind (self-diffusion, second virial coefficient) is one more entry in
-:data:`QUANTITY_KINDS`; only kinds listed in :data:`fitkin.measurements.PROPERTY_KINDS` are
+Adding a kind is one more entry in :data:`QUANTITY_KINDS`; only kinds listed in :data:`fitkin.measurements.PROPERTY_KINDS` are
 turned into :class:`~fitkin.measurements.PropertySeries`.
 """
 from __future__ import annotations
@@ -33,14 +32,15 @@ class QuantityKind:
 
     Attributes
     ----------
-    name : canonical name (``"temperature"``, ``"viscosity"``, ``"conductivity"``, ``"pressure"``);
+    name : canonical name (``"temperature"``, ``"viscosity"``, ``"conductivity"``,
+        ``"self_diffusion"``, ``"second_virial"``, ``"pressure"``);
         for properties it equals the kind in :data:`fitkin.measurements.PROPERTY_KINDS`.
     label : words for messages (``"thermal conductivity"``).
     role : ``"temperature"`` (the abscissa), ``"property"`` (fitted) or ``"condition"``
         (stated alongside, e.g. pressure).
     si_unit : the SI unit text the values are converted to.
     synonyms : header names recognised, compared after :func:`normalize_name`.
-    positive : values must be > 0.
+    positive : values must be > 0 (False for the second virial coefficient, which changes sign).
     plausible : (low, high) in SI for a dilute gas, or None; values outside are an error
         for properties and a warning for other roles.
     typical : a typical SI value, used to rank unit-slip suggestions.
@@ -81,6 +81,32 @@ QUANTITY_KINDS: tuple[QuantityKind, ...] = (
         plausible=(1.0e-3, 1.0), typical=2.5e-2,
         common_units=("mW/(m K)", "W/(m K)", "µW/(m K)", "W/(cm K)", "cal/(s cm K)",
                       "Btu/(h ft °F)"),
+    ),
+    QuantityKind(
+        name="self_diffusion", label="self-diffusion coefficient", role="property",
+        si_unit="m^2/s",
+        synonyms=("self_diffusion", "d", "self-diffusion", "self diffusion",
+                  "self-diffusion coefficient", "self diffusion coefficient",
+                  "diffusion coefficient", "diffusion"),
+        # D ∝ 1/p, so the window applies to D scaled to 0.1 MPa (p D / 0.1 MPa; the reader
+        # does the scaling): at 0.1 MPa heavy vapours near their boiling points show about
+        # 2e-6 m²/s and helium or hydrogen at a few thousand K about 5e-3 m²/s (from memory;
+        # consistent with D = 1.6e-4 m²/s for helium at 300 K and D ∝ T^1.7); the window is
+        # wider by a factor of about 10 below and 2 above
+        plausible=(1.0e-7, 1.0e-2), typical=2.0e-5,
+        common_units=("cm²/s", "m²/s", "mm²/s", "cm²/h", "ft²/s"),
+    ),
+    QuantityKind(
+        name="second_virial", label="second virial coefficient", role="property",
+        si_unit="m^3/mol",
+        synonyms=("second_virial", "b", "b2", "second virial coefficient", "second virial",
+                  "virial coefficient"),
+        # B changes sign at the Boyle temperature: not "positive". From about +15 cm³/mol
+        # (helium, hydrogen) down to a few thousand cm³/mol negative (heavy vapours near
+        # saturation, e.g. water about −1100 cm³/mol at 300 K; from memory); the window
+        # −5000..+100 cm³/mol allows a margin on both sides
+        positive=False, plausible=(-5.0e-3, 1.0e-4), typical=1.0e-4,
+        common_units=("cm³/mol", "m³/mol", "L/mol", "dm³/mol", "mL/mol"),
     ),
     QuantityKind(
         name="pressure", label="pressure", role="condition", si_unit="Pa",
@@ -138,7 +164,7 @@ def suggest_unit(values_si: np.ndarray, header_unit, kind: QuantityKind) -> str 
     if kind.plausible is None or not kind.common_units or units.is_offset_unit(header_unit):
         return None
     values = np.asarray(values_si, dtype=float)
-    values = values[np.isfinite(values) & (values > 0)]
+    values = values[np.isfinite(values) & ((values > 0) if kind.positive else (values != 0))]
     if values.size == 0:
         return None
     low, high = kind.plausible
@@ -153,7 +179,7 @@ def suggest_unit(values_si: np.ndarray, header_unit, kind: QuantityKind) -> str 
             continue
         rescaled = values * factor / header_factor
         if np.all((rescaled >= low) & (rescaled <= high)):
-            centre = math.exp(float(np.mean(np.log(rescaled))))
+            centre = math.exp(float(np.mean(np.log(np.abs(rescaled)))))
             score = abs(math.log(centre / kind.typical)) if kind.typical else 0.0
             if score < best_score:
                 best, best_score = text, score

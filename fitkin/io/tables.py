@@ -2,7 +2,8 @@
 
 A table is a CSV, TSV or semicolon-separated text file (decimal point or decimal comma,
 detected) or an .xlsx workbook. Its first non-comment row is the header: a temperature
-column, one or more property columns (viscosity, thermal conductivity), and optionally
+column, one or more property columns (viscosity, thermal conductivity, self-diffusion
+coefficient D, second virial coefficient B), and optionally
 their GUM standard uncertainties ``u(...)``, a pressure column and a ``source``/``dataset``
 column. Lines starting with ``#`` are comments and blank lines are skipped; row numbers in
 messages are the file's own line (or spreadsheet row) numbers, comments included.
@@ -41,7 +42,8 @@ DEFAULT_PRESSURE_LIMIT = 1.0e6
 
 
 def read_table(path, *, sheet: str | int | None = None, units: Mapping[str, str] | None = None,
-               pressure_limit: float | None = DEFAULT_PRESSURE_LIMIT) -> MeasuredTable:
+               pressure_limit: float | None = DEFAULT_PRESSURE_LIMIT,
+               default_pressure: float | None = None) -> MeasuredTable:
     """Read one measured table, validate it and convert it to SI.
 
     Parameters
@@ -53,6 +55,9 @@ def read_table(path, *, sheet: str | int | None = None, units: Mapping[str, str]
         differs from the one given here that is an error.
     pressure_limit : Pa; points stated at a higher pressure get a warning (the module
         docstring says why 1 MPa). None: no check.
+    default_pressure : Pa; the pressure of points whose row states none. A self-diffusion
+        coefficient depends on pressure (D ∝ 1/p), so a table of D needs either a pressure
+        column (``p [kPa]``) or this; other kinds keep NaN where no pressure is stated.
 
     Returns
     -------
@@ -68,6 +73,8 @@ def read_table(path, *, sheet: str | int | None = None, units: Mapping[str, str]
     """
     if pressure_limit is not None and not pressure_limit > 0:
         raise InputError(f"the pressure limit must be positive, got {pressure_limit!r}")
+    if default_pressure is not None and not (default_pressure > 0 and default_pressure < float("inf")):
+        raise InputError(f"the default pressure must be a positive number of pascals, got {default_pressure!r}")
     overrides = parse_unit_overrides(units)
     file = str(path)
     data = _read_bytes(Path(path), file)
@@ -86,7 +93,7 @@ def read_table(path, *, sheet: str | int | None = None, units: Mapping[str, str]
     body = grid.rows[1:]
     if not body:
         raise InputError("the table has a header but no data rows", file=file, row=header_row)
-    builder = TableAssembler(file, specs, body, pressure_limit)
+    builder = TableAssembler(file, specs, body, pressure_limit, default_pressure)
     builder.run()
     problems += builder.problems
     if problems:

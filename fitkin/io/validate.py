@@ -96,23 +96,37 @@ def check_positive(spec: ColumnSpec, raw, si, rows, file: str, *, label: str | N
     return problems
 
 
-def check_plausible(spec: ColumnSpec, raw, si, rows, file: str) -> list[InputError]:
+def check_plausible(spec: ColumnSpec, raw, si, rows, file: str, *, scale=None,
+                    scaled_to: str = "") -> list[InputError]:
     """Values outside the dilute-gas range of the kind, with the likely unit slip named.
 
     When most values of the column are out of range the column's unit is probably wrong:
     one problem is reported at the first such row, naming the common unit that would bring
     all values into range (:func:`~fitkin.io.quantities.suggest_unit`). When only a few are
     out of range each is reported as a likely typo.
+
+    Parameters
+    ----------
+    scale : optional (n,) factors applied to ``si`` before the range check, for a kind whose
+        range is stated at a reference condition (self-diffusion: p / 0.1 MPa, since D ∝ 1/p);
+        ``scaled_to`` names that condition in messages (e.g. ``"at 0.1 MPa"``).
     """
     kind = spec.kind
     if kind.plausible is None:
         return []
     low, high = kind.plausible
-    stated = np.isfinite(si) & (si > 0)
+    shown = np.asarray(si, dtype=float)
+    if scale is not None:
+        si = shown * np.asarray(scale, dtype=float)
+
+    def text(i):
+        base = _value_text(raw[i], spec, shown[i])
+        return base + (f" ({_fmt(si[i])} {kind.si_unit} {scaled_to})" if scale is not None else "")
+    stated = np.isfinite(si) & ((si > 0) if kind.positive else np.ones(len(si), dtype=bool))
     out = stated & ((si < low) | (si > high))
     if not out.any():
         return []
-    range_text = f"{_fmt(low)} to {_fmt(high)} {kind.si_unit}"
+    range_text = f"{_fmt(low)} to {_fmt(high)} {kind.si_unit}" + (f" {scaled_to}" if scaled_to else "")
     if out.sum() * 2 > stated.sum():
         first = int(np.argmax(out))
         guess = suggest_unit(si[stated], spec.unit, kind)
@@ -122,13 +136,14 @@ def check_plausible(spec: ColumnSpec, raw, si, rows, file: str) -> list[InputErr
             hint = f"no common unit of {kind.label} brings them into range; check the unit and the values"
         return [InputError(
             f"{out.sum()} of {stated.sum()} values ({format_rows(rows[out])}) cannot be the "
-            f"{kind.label} of a dilute gas: {_value_text(raw[first], spec, si[first])}, "
+            f"{kind.label} of a dilute gas: {text(first)}, "
             f"expected {range_text}",
             file=file, row=int(rows[first]), column=spec.header, hint=hint)]
     return [InputError(
-        f"{_value_text(value, spec, v)} cannot be the {kind.label} of a dilute gas (expected {range_text})", file=file, row=int(row), column=spec.header,
+        f"{text(i)} cannot be the {kind.label} of a dilute gas (expected {range_text})",
+        file=file, row=int(rows[i]), column=spec.header,
         hint="most other values of the column are in range: a typo?")
-        for value, v, row in zip(raw[out], si[out], rows[out])]
+        for i in np.flatnonzero(out)]
 
 
 def check_uncertainty(spec: ColumnSpec, raw, u_si, value_si, rows, file: str, value_header: str
@@ -163,10 +178,15 @@ def check_uncertainty(spec: ColumnSpec, raw, u_si, value_si, rows, file: str, va
                 f"an uncertainty is given but column '{value_header}' has no value in this row",
                 **where, hint="check that the columns are aligned"))
     both = np.isfinite(u_si) & np.isfinite(value_si) & (u_si > 0) & (value_si > 0)
+    if not spec.kind.positive:
+        # a value that changes sign (B near its Boyle temperature) can be small beside its
+        # uncertainty; only the "fraction given as percent" slip is looked for
+        both = np.isfinite(u_si) & np.isfinite(value_si) & (u_si > 0) & (value_si != 0)
+        value_si = np.abs(value_si)
     if both.any():
         rel = np.full_like(u_si, np.nan)
         rel[both] = u_si[both] / value_si[both]
-        large = both & (rel > LARGE_RELATIVE_UNCERTAINTY)
+        large = both & (rel > LARGE_RELATIVE_UNCERTAINTY) & spec.kind.positive
         small = both & (rel < SMALL_RELATIVE_UNCERTAINTY)
         if large.any():
             warnings.append(f"{file}: column '{spec.header}', {format_rows(rows[large])}: uncertainty "
