@@ -306,11 +306,13 @@ Image(filename=str(out / "figures" / "fit_viscosity.png"), width=560)
 ## 7. Reload the fit
 
 Downstream code needs only the parameter file. `load_parameters` returns an object that
-evaluates the saved model, with uncertainty bands from the covariance on request (notebook 02
-shows more).
+evaluates the saved model, with uncertainty bands on request: from the posterior samples when
+the fit was sampled and `samples.npz` lies beside the file (as here), otherwise from the
+covariance; `band_source` says which. Notebook 02 shows more.
 """),
     _code(r"""
 fit = fitkin.load_parameters(parameter_file)
+print("bands from:", fit.band_source)
 T = np.array([298.15, 500.0, 1000.0])
 median, lower, upper = fit.viscosity(T, band=0.95)
 low, high = fit.temperature_range
@@ -323,9 +325,14 @@ for t, m, lo, hi in zip(T, median, lower, upper):
 
 ```
 fitkin check xenon_viscosity.csv xenon_conductivity.xlsx
-fitkin fit xenon_viscosity.csv xenon_conductivity.xlsx --formula Xe --potential lj,mie --out fit-xenon
+fitkin fit xenon_viscosity.csv xenon_conductivity.xlsx --formula Xe --potential lj,mie --out compare-xenon
+fitkin fit xenon_viscosity.csv xenon_conductivity.xlsx --formula Xe --sample --seed 2026 --out fit-xenon
+fitkin report fit-xenon/parameters.json --out report-again
 fitkin predict fit-xenon/parameters.json --temperatures 250:1000:50 --band 0.95
 ```
+
+`fitkin fit` writes `parameters.json`, `report.html` and `figures/` (and `samples.npz` with
+`--sample`) into the `--out` folder.
 
 `docs/user-guide.md` describes every command and option.
 """),
@@ -425,8 +432,9 @@ for gas in (krypton, argon):
 ## 2. Properties at new temperatures, with bands and an extrapolation flag
 
 Each method takes temperatures in K and returns SI values; with `band=0.95` it returns
-(median, lower, upper) of a central 95 % band from parameter draws out of the saved
-covariance. The measured range is `temperature_range`; anything outside it is an
+(median, lower, upper) of a central 95 % band from parameter draws: out of the saved
+covariance here, or from the posterior samples when a fit was sampled (`band_source` says
+which). The measured range is `temperature_range`; anything outside it is an
 extrapolation, which the table below flags (as the `extrapolated` column of `fitkin predict`
 does).
 """),
@@ -538,6 +546,12 @@ the conductivity falls steadily towards that of the heavier, less conductive kry
 are an assumption: when mixture data exist, check them (or fit `k12`) before trusting the
 unlike interaction. The mixture results carry no band; the uncertainty of the pure-gas
 parameters is not propagated here.
+
+The command line gives the same numbers:
+`fitkin predict fit-krypton/parameters.json -T 250,300,500,700 --with fit-argon/parameters.json --x1 0.25,0.5`
+adds the binary diffusion coefficient and the mixture viscosity at those mole fractions of
+krypton to the prediction table. Check both gases' measured ranges yourself: a mixture value is
+an extrapolation as soon as either gas is extrapolated.
 
 ## 5. Elementary kinetic theory beside Chapman–Enskog
 
