@@ -10,7 +10,7 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from .errors import FitkinError, ParameterFileError
+from .errors import FitkinError, OutOfRangeError, ParameterFileError
 from .inference.model import ANGSTROM
 from .io.parameter_file import read_parameter_file
 from .species import Gas
@@ -136,7 +136,16 @@ class FittedGas:
             draws = posterior_draws(self.record, Path(self.path).parent, max_draws=BAND_DRAWS)
             return predictive_band(draws, kind, T, self._evaluate, band=band, pressure=pressure,
                                    max_draws=BAND_DRAWS)
-        draws = np.array([self._evaluate(kind, th, T, pressure) for th in self._draws(BAND_DRAWS)])
+        values = []
+        for th in self._draws(BAND_DRAWS):
+            try:
+                values.append(self._evaluate(kind, th, T, pressure))
+            except OutOfRangeError:
+                continue  # a draw outside what the model covers (T* range, polar-correction range)
+        if len(values) < 0.9 * BAND_DRAWS:
+            raise OutOfRangeError(f"{BAND_DRAWS - len(values)} of {BAND_DRAWS} parameter draws fall outside the "
+                                  "range the model covers at these temperatures; no reliable band can be given")
+        draws = np.array(values)
         q = 0.5 - band / 2, 0.5, 0.5 + band / 2
         lo, med, hi = np.quantile(draws, q, axis=0)
         return med, lo, hi

@@ -28,14 +28,15 @@ def format_fit_summary(result, record_path=None, truth: dict | None = None) -> s
                      f"sources {', '.join(info['sources'])}")
     lines.append(f"Weighting: {s.get('weighting')}")
     lines.append("")
-    header = f"  {'parameter':<10} {'estimate ± standard error':>28}"
+    width = max([10] + [len(_LABELS.get(n, n)) for n in result.parameters])
+    header = f"  {'parameter':<{width}} {'estimate ± standard error':>28}"
     if truth:
         header += f"  {'generated from':>15}  {'deviation/σ':>11}"
     lines.append(header)
     for name, p in result.parameters.items():
         unit = _UNIT_TEXT.get(p.unit, p.unit)
         text = f"{format_estimate(p.value, p.stderr)} {unit}".rstrip()
-        row = f"  {_LABELS.get(name, name):<10} {text:>28}"
+        row = f"  {_LABELS.get(name, name):<{width}} {text:>28}"
         if not p.vary:
             row += "  (fixed)"
         if truth and name in truth:

@@ -60,6 +60,11 @@ def _residual_function(model: ForwardModel, data: FitData):
 
 
 def _start(model: ForwardModel, data: FitData):
+    if model.polar:
+        # the closed-form σ profile needs μ ∝ 1/σ², which the polar correction (δ* ∝ 1/σ³)
+        # breaks: start from the non-polar problem, which lies close by
+        model = ForwardModel(gas=model.gas, potential=model.potential, free_shape=model.free_shape,
+                             order=model.order, collision=model.collision, internal=model.internal, polar=False)
     grids = [SHAPE_START_GRID[name] for name in model.free_shape]
     best = None
     for combo in (np.array(np.meshgrid(*grids)).reshape(len(grids), -1).T if grids else [()]):
