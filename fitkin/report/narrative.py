@@ -108,9 +108,14 @@ def provenance_section(ctx: ReportContext) -> Section:
             ["fit start", _dict_text(prov.get("fit_start"))],
             ["parameter bounds", _dict_text(prov.get("bounds"))],
             ["uncertainty bands", band]]
+    internal = theory.get("internal_energy")
+    if internal:
+        rows.append(["internal-energy transport", f"{internal.get('model')} ({internal.get('reference', '')}); "
+                                                  f"fitted: {', '.join(internal.get('fitted') or []) or 'none'}"])
+    if theory.get("polar_correction"):
+        rows.append(["polar correction", "Stockmayer, Brokaw (1969) correction of Ω(1,1)* and Ω(2,2)*"])
     if post:
-        rows.append(["posterior sampling", _dict_text({k: v for k, v in post.items()
-                                                       if k not in ("samples", "percentiles")})])
+        rows += _posterior_rows(post)
     html = table(["item", "value"], rows, text_columns=(0, 1))
     files = (r.get("data") or {}).get("files") or []
     if files:
@@ -120,6 +125,26 @@ def provenance_section(ctx: ReportContext) -> Section:
               ("html", f'<span class="mono">{escape(str(f.get("sha256", "")))}</span>')] for f in files],
             text_columns=(0, 1, 2))
     return Section("provenance", "Provenance", html)
+
+
+def _posterior_rows(post: dict) -> list[list[str]]:
+    """A few readable provenance rows for the sampling (the full record is in the file)."""
+    like = post.get("likelihood") or {}
+    priors = post.get("priors") or {}
+    prior_text = "; ".join(
+        f"{name}: {p.get('kind')}" + (f" [{p.get('lower'):.5g}, {p.get('upper'):.5g}]"
+                                      if isinstance(p.get("lower"), (int, float)) and isinstance(p.get("upper"), (int, float))
+                                      else "")
+        for name, p in priors.items() if isinstance(p, dict))
+    samples = post.get("samples") or {}
+    return [["posterior sampling", f"{post.get('method', '—')}; {post.get('software', '')}; "
+                                   f"{post.get('walkers', '—')} walkers, seed {post.get('seed', '—')}"],
+            ["convergence", str(post.get("convergence_message", "—"))],
+            ["priors", prior_text or "—"],
+            ["likelihood", f"{like.get('form', '—')}; {like.get('uncertainties', '')}"
+                           + (f"; calibration factors for {', '.join(like['calibration'])}" if like.get("calibration")
+                              else "")],
+            ["samples file", f"{samples.get('file', '—')} (SHA-256 {str(samples.get('sha256', '—'))[:16]}…)"]]
 
 
 def _dict_text(d) -> str:
