@@ -3,6 +3,8 @@ from __future__ import annotations
 
 import numpy as np
 
+from .measurements import SIGNED_KINDS
+
 __all__ = ["format_fit_summary", "format_estimate"]
 
 _LABELS = {"sigma": "σ", "epsilon_over_k": "ε/k", "n": "n", "alpha": "α"}
@@ -47,14 +49,28 @@ def format_fit_summary(result, record_path=None, truth: dict | None = None) -> s
     if "sigma" in names and "epsilon_over_k" in names:
         r = result.correlation[names.index("sigma"), names.index("epsilon_over_k")]
         lines.append(f"  correlation(σ, ε/k) = {r:+.3f}")
-    dev = result.residual_percent
+    data = result.data
+    relative = ~np.isin(np.asarray(data.kind, dtype=object), SIGNED_KINDS)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        dev = result.residual_percent
     lines.append("")
-    lines.append(f"Fit: χ² = {result.chi2:.2f} on {result.dof} degrees of freedom "
-                 f"(reduced χ² = {result.reduced_chi2:.2f}); deviations rms {np.sqrt(np.mean(dev**2)):.3f} %, "
+    text = (f"Fit: χ² = {result.chi2:.2f} on {result.dof} degrees of freedom "
+            f"(reduced χ² = {result.reduced_chi2:.2f})")
+    if relative.any() and relative.all():
+        text += (f"; deviations rms {np.sqrt(np.mean(dev**2)):.3f} %, "
                  f"largest {np.max(np.abs(dev)):.3f} %")
-    for kind in result.data.kinds:
-        m = result.data.mask(kind)
-        lines.append(f"  {kind:<13} rms {np.sqrt(np.mean(dev[m]**2)):.3f} %, largest {np.max(np.abs(dev[m])):.3f} %")
+    lines.append(text)
+    for kind in data.kinds:
+        m = data.mask(kind)
+        if kind in SIGNED_KINDS:
+            # B changes sign: deviations in cm³/mol and in stated uncertainties, not in percent
+            diff = (result.prediction[m] - data.value[m]) * 1e6
+            z = (result.prediction[m] - data.value[m]) / data.sigma_y[m]
+            lines.append(f"  {kind:<13} rms {np.sqrt(np.mean(diff**2)):.3g} cm³/mol, largest "
+                         f"{np.max(np.abs(diff)):.3g} cm³/mol; rms {np.sqrt(np.mean(z**2)):.2f} u")
+        else:
+            lines.append(f"  {kind:<13} rms {np.sqrt(np.mean(dev[m]**2)):.3f} %, "
+                         f"largest {np.max(np.abs(dev[m])):.3f} %")
     if result.warnings:
         lines.append("")
         lines.append("Warnings:")

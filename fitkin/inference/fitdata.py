@@ -1,4 +1,12 @@
-"""The measurements of one fit, stacked into flat arrays (plain data for the likelihood)."""
+"""The measurements of one fit, stacked into flat arrays (plain data for the likelihood).
+
+Weights. Points with stated standard uncertainties are weighted by them. Without any, a fit
+of transport data uses equal relative weights (residual = deviation / value). The second
+virial coefficient changes sign at the Boyle temperature, so a relative weight means nothing
+for it: B points must state u(B), and a fit that includes B needs stated uncertainties for
+every point (an absolute B residual and a relative transport residual share no scale that
+the data could fix). Both are :class:`~fitkin.errors.FitError` naming the file.
+"""
 from __future__ import annotations
 
 from dataclasses import dataclass
@@ -6,7 +14,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..errors import FitError
-from ..measurements import PROPERTY_KINDS
+from ..measurements import PROPERTY_KINDS, SIGNED_KINDS
 
 __all__ = ["FitData"]
 
@@ -22,7 +30,7 @@ class FitData:
     pressure : (n,) Pa or NaN.   source : (n,) str.   rows : (n,) int row in its file.
     file : (n,) str file each point came from.
     weighted : True when every point has a stated uncertainty; otherwise the fit uses
-        equal relative weights for all points.
+        equal relative weights for all points (never with B points: see the module docstring).
     """
 
     kind: np.ndarray
@@ -50,6 +58,7 @@ class FitData:
                     parts.append(s)
         if not parts:
             raise FitError("no measured points of " + " or ".join(kinds) + " to fit")
+        _require_absolute_weights(parts)
         cat = lambda attr, dtype=None: np.concatenate(  # noqa: E731
             [np.asarray(getattr(p, attr), dtype=dtype) for p in parts])
         unc = cat("uncertainty", float)
@@ -91,4 +100,29 @@ class FitData:
                       "sources": sorted(set(map(str, self.source[m])))}
         return out
 
+
+def _stated(series) -> bool:
+    u = np.asarray(series.uncertainty, dtype=float)
+    return bool(np.all(np.isfinite(u) & (u > 0)))
+
+
+def _require_absolute_weights(parts) -> None:
+    """FitError unless every point states u when any point is of a signed kind (B)."""
+    signed = [p for p in parts if p.kind in SIGNED_KINDS]
+    if not signed:
+        return
+    bare = [p for p in signed if not _stated(p)]
+    if bare:
+        p = bare[0]
+        raise FitError(f"{p.file}: the second virial coefficient values need stated standard uncertainties: "
+                       "B changes sign at the Boyle temperature, so equal relative weights cannot be used for it. "
+                       "Add a column such as 'u(B) [cm³/mol]' with each point's standard uncertainty")
+    others = [p for p in parts if p.kind not in SIGNED_KINDS and not _stated(p)]
+    if others:
+        p = others[0]
+        name = p.kind.replace("_", " ")
+        raise FitError(f"{p.file}: the {name} values state no uncertainties, but a fit that includes second "
+                       "virial coefficients weights every point by its stated uncertainty (an absolute B "
+                       "deviation and a relative deviation share no common scale). Add a column such as "
+                       f"'u({name}) [%]', or fit B without these data")
 

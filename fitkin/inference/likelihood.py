@@ -5,6 +5,10 @@ the nuisance parameters — ``log10_scatter`` (a relative extra scatter s added 
 σ_i² = u_i² + (s y_i)²) when requested, and one multiplicative calibration factor
 ``calibration[SOURCE]`` per calibrated source (measured value = c_j × true value).
 
+The second virial coefficient B changes sign, so s y_i would vanish near its Boyle
+temperature: for B points the extra scatter is s times the root-mean-square |B| of the B
+points of the fit (one scale per fit, a choice of this program).
+
 Forms
 -----
 * Gaussian with the stated per-point standard uncertainties u_i (JCGM 100:2008 for u).
@@ -12,8 +16,9 @@ Forms
   outliers (Lange, Little & Taylor, J. Am. Stat. Assoc. 84, 881 (1989); ν = 4 by default,
   their suggestion).
 
-Other properties (self-diffusion D needs a reader; B(T) needs a virial routine) enter through
-:data:`PROPERTY_PREDICTORS`: a kind added there and to the readers joins the same likelihood.
+Every measured kind enters through :data:`PROPERTY_PREDICTORS` (viscosity, conductivity,
+self-diffusion D(T, p), second virial coefficient B(T)): a kind added there and to the
+readers joins the same likelihood.
 """
 from __future__ import annotations
 
@@ -23,8 +28,9 @@ import numpy as np
 from scipy.special import gammaln
 
 from ..errors import FitError, OutOfRangeError
+from ..measurements import SIGNED_KINDS
 from .fitdata import FitData
-from .model import ANGSTROM, ForwardModel
+from .model import ANGSTROM, ForwardModel, second_virial_coefficient
 from .priors import Gaussian, Uniform
 
 __all__ = ["LogLikelihood", "parse_calibration", "PROPERTY_PREDICTORS", "SCATTER_NAME", "calibration_name",
@@ -54,10 +60,16 @@ def _self_diffusion(tm, T, p, M, sigma, eps):
     return tm.self_diffusion(T, p, M, sigma, eps)
 
 
+def _second_virial(tm, T, p, M, sigma, eps, *, quantum=False):
+    # classical B = b0(σ) B*(T/ε) of the transport model's potential, vectorised over points
+    # (Hirschfelder, Curtiss & Bird 1954, eqs. 3.6-2 to 3.6-5); quantum: first
+    # Wigner–Kirkwood term (ibid. §6.5), used when the forward model asks for it
+    return second_virial_coefficient(tm.potential, T, sigma, eps, quantum=quantum, molar_mass=M)
+
+
 #: kind → f(transport_model, T, p, molar_mass, σ_m, ε/k) evaluated elementwise on flat arrays.
-#: "second_virial" is not here yet: it needs the virial routine of the collision-integral work.
 PROPERTY_PREDICTORS = {"viscosity": _viscosity, "conductivity": _conductivity,
-                       "self_diffusion": _self_diffusion}
+                       "self_diffusion": _self_diffusion, "second_virial": _second_virial}
 
 
 class LogLikelihood:
@@ -102,6 +114,10 @@ class LogLikelihood:
         self._T = np.asarray(data.temperature, dtype=float)
         self._p = np.asarray(data.pressure, dtype=float)
         self._stencil = _shape_stencil(model)
+        self._predictors = dict(PROPERTY_PREDICTORS)
+        if model.quantum_virial:
+            self._predictors["second_virial"] = lambda *a: _second_virial(*a, quantum=True)
+        self._scatter_scale = _scatter_scale(data)
         self.evaluations = 0
 
     def _calibration(self, given: dict) -> dict:
@@ -139,7 +155,7 @@ class LogLikelihood:
         for kind, m in self._kinds:
             T, p = self._T[m], self._p[m]
             nk = len(T)
-            flat = PROPERTY_PREDICTORS[kind](tm, np.tile(T, rows), np.tile(p, rows), M,
+            flat = self._predictors[kind](tm, np.tile(T, rows), np.tile(p, rows), M,
                                              np.repeat(sigma_m, nk), np.repeat(eps, nk))
             out[:, m] = np.asarray(flat, dtype=float).reshape(rows, nk)
         return out
@@ -213,7 +229,8 @@ class LogLikelihood:
         ln(prediction) is interpolated in the shape parameter by 5-point Lagrange weights
         between the exact grid shapes, each evaluated for all its walkers at once — the same
         stencil and weights the collision tables use for ln Ω (see fitkin.collision.tables),
-        so the two agree to the interpolation error (checked in the tests).
+        so the two agree to the interpolation error (checked in the tests). B, which changes
+        sign, is interpolated itself rather than its logarithm.
         """
         name, step, origin, lo_k, hi_k = self._stencil
         j = self.physical_names.index(name)
@@ -231,6 +248,7 @@ class LogLikelihood:
                 if a != b:
                     weights[:, a] *= (kk[:, 0] - nodes[:, b]) / (nodes[:, a] - nodes[:, b])
         log_pred = np.zeros((idx.size, len(self.y)))
+        signed = np.isin(np.asarray(self.data.kind, dtype=object), SIGNED_KINDS)
         good = np.ones(idx.size, dtype=bool)
         tmin, tmax = self._T.min(), self._T.max()
         for node in np.unique(nodes):
@@ -244,8 +262,9 @@ class LogLikelihood:
             if not rows.size:
                 continue
             pred = self._flat(tm, x[idx[rows], 0] * ANGSTROM, x[idx[rows], 1], rows.size)
-            log_pred[rows] += weights[rows, cols][:, None] * np.log(pred)
-        out[idx[good]] = np.exp(log_pred[good])
+            with np.errstate(invalid="ignore", divide="ignore"):
+                log_pred[rows] += weights[rows, cols][:, None] * np.where(signed, pred, np.log(pred))
+        out[idx[good]] = np.where(signed, log_pred[good], np.exp(log_pred[good]))
         self.evaluations += int(good.sum())
         rest = ok.copy()
         rest[idx] = False
@@ -257,7 +276,7 @@ class LogLikelihood:
         j = len(self.physical_names)
         if self.extra_scatter:
             s = 10.0 ** x[:, j]
-            var = self.u[None, :] ** 2 + (s[:, None] * self.y[None, :]) ** 2
+            var = self.u[None, :] ** 2 + (s[:, None] * self._scatter_scale[None, :]) ** 2
             j += 1
         else:
             var = np.broadcast_to(self.u ** 2, (W, len(self.y)))
@@ -295,7 +314,10 @@ class LogLikelihood:
              "uncertainties": "stated per point" if not self.forced_scatter else
              "not stated for every point: a relative scatter is fitted in their place",
              "extra_scatter": ("relative s added in quadrature, sigma_i^2 = u_i^2 + (s y_i)^2, "
-                               f"sampled as {SCATTER_NAME}") if self.extra_scatter else None,
+                               f"sampled as {SCATTER_NAME}"
+                               + ("; for second virial points y_i is the rms |B| of the B points"
+                                  if "second_virial" in self.data.kinds else ""))
+             if self.extra_scatter else None,
              "calibration": {s: {"prior_mean": 1.0, "prior_relative_sd": u} for s, u in self.calibration.items()},
              "model": "measured value = calibration factor x Chapman-Enskog prediction"}
         if self.form == "student_t":
@@ -322,6 +344,16 @@ def parse_calibration(text: str) -> tuple[str, float]:
     return source, rel
 
 
+def _scatter_scale(data: FitData) -> np.ndarray:
+    """(n,) the magnitude the relative extra scatter multiplies: |y_i|, or for B points
+    the rms |B| of all B points (see the module docstring)."""
+    y = np.abs(np.asarray(data.value, dtype=float))
+    signed = np.isin(np.asarray(data.kind, dtype=object), SIGNED_KINDS)
+    if signed.any():
+        y = np.where(signed, float(np.sqrt(np.mean(y[signed] ** 2))), y)
+    return y
+
+
 def _shape_stencil(model: ForwardModel):
     """(name, step, origin, lowest k, highest k) of the shape grid the collision tables
     interpolate on, for one free shape parameter of a Mie or exp-6 potential; else None."""
@@ -345,11 +377,14 @@ def source_offsets(data: FitData, prediction: np.ndarray) -> dict:
     The standard error is scaled by the source's Birge ratio √(χ²/ν) when above 1 (Birge,
     Phys. Rev. 40, 207 (1932)), so scatter beyond the stated uncertainties widens it.
     Returns {source: (offset, standard_error, points)}; points without u use equal weights.
+    Points of :data:`~fitkin.measurements.SIGNED_KINDS` (B, which changes sign) are left
+    out: a relative offset means nothing for them, so a source of B data only has no entry.
     """
-    y, m = np.asarray(data.value, float), np.asarray(prediction, float)
-    u = np.asarray(data.uncertainty, float)
+    keep = ~np.isin(np.asarray(data.kind, dtype=object), SIGNED_KINDS)
+    y, m = np.asarray(data.value, float)[keep], np.asarray(prediction, float)[keep]
+    u = np.asarray(data.uncertainty, float)[keep]
     rel_u = np.where(np.isfinite(u) & (u > 0), u / np.abs(m), np.nan)
-    src = np.asarray([str(s) for s in data.source], dtype=object)
+    src = np.asarray([str(s) for s in np.asarray(data.source)[keep]], dtype=object)
     out = {}
     for s in sorted(set(src)):
         k = src == s

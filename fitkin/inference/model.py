@@ -5,6 +5,10 @@ example the repulsive exponent ``n`` of a Mie potential) and any fitted paramete
 internal-energy conductivity model (for example ``z_rot_inf``). The model is pure: it reads
 no files and keeps only a small cache of :class:`~fitkin.theory.transport.TransportModel`
 objects per potential shape.
+
+Kinds: viscosity, thermal conductivity and self-diffusion from Chapman–Enskog theory (they
+scale as 1/σ² at fixed ε/k and shape); the second virial coefficient B(T) from the same pair
+potential by :func:`second_virial_coefficient` (it scales as σ³ at fixed ε/k).
 """
 from __future__ import annotations
 
@@ -13,16 +17,48 @@ from dataclasses import dataclass, field
 import numpy as np
 from scipy import constants
 
-from ..errors import FitError
+from ..errors import FitError, OutOfRangeError
 from ..species import Gas
 from ..thermo import MonatomicHeatCapacity
 from ..theory.internal import InternalEnergyTransport, transport_with_internal_energy
+from ..theory.quantum import de_boer_parameter
 from ..theory.transport import TransportModel
+from ..theory.virial import first_quantum_term, reduced_second_virial, virial_reference_volume
 from .fitdata import FitData
 
-__all__ = ["ForwardModel", "ANGSTROM", "with_shape", "default_internal_model", "is_monatomic"]
+__all__ = ["ForwardModel", "ANGSTROM", "with_shape", "default_internal_model", "is_monatomic",
+           "second_virial_coefficient", "INVERSE_SIGMA_SQUARED_KINDS", "SIGMA_CUBED_KINDS"]
 
 ANGSTROM = 1e-10
+#: Kinds that scale exactly as 1/σ² at fixed ε/k and shape (Chapman–Enskog transport).
+INVERSE_SIGMA_SQUARED_KINDS = ("viscosity", "conductivity", "self_diffusion")
+#: Kinds that scale exactly as σ³ at fixed ε/k and shape (classical B(T)).
+SIGMA_CUBED_KINDS = ("second_virial",)
+
+
+def second_virial_coefficient(potential, T, sigma, epsilon_over_k, *, quantum=False, molar_mass=None):
+    """B(T) in m³/mol, elementwise over arrays of T (K), σ (m) and ε/k (K) of one shape.
+
+    B = b₀ B*(T*), b₀ = (2/3) π N_A σ³, T* = T/(ε/k), with the classical B* of
+    :func:`fitkin.theory.virial.reduced_second_virial` (Hirschfelder, Curtiss & Bird,
+    Molecular Theory of Gases and Liquids (1954), eqs. 3.6-2 to 3.6-5). ``quantum`` adds the
+    first Wigner–Kirkwood term Λ*² B*_I (ibid. §6.5), with the de Boer parameter Λ* of each
+    (σ, ε/k); it needs ``molar_mass`` (kg/mol). Unlike
+    :func:`fitkin.theory.virial.second_virial`, σ and ε/k may be arrays (one value per point),
+    so many parameter sets are evaluated in one call.
+    """
+    T = np.asarray(T, dtype=float)
+    sigma = np.broadcast_to(np.asarray(sigma, dtype=float), T.shape)
+    eps = np.broadcast_to(np.asarray(epsilon_over_k, dtype=float), T.shape)
+    if np.any(~(np.isfinite(sigma) & (sigma > 0))) or np.any(~(np.isfinite(eps) & (eps > 0))):
+        raise OutOfRangeError("σ and ε/k must be positive and finite for the second virial coefficient")
+    t_star = T / eps
+    b_star = reduced_second_virial(potential, t_star)
+    if quantum:
+        if molar_mass is None or not molar_mass > 0:
+            raise FitError("the quantum correction to B needs the gas's molar mass")
+        b_star = b_star + de_boer_parameter(molar_mass, sigma, eps) ** 2 * first_quantum_term(potential, t_star)
+    return b_star * virial_reference_volume(sigma)
 
 
 def with_shape(potential, **changes):
@@ -77,6 +113,8 @@ class ForwardModel:
     order, collision : passed to :class:`TransportModel`.
     internal : internal-energy conductivity model (None: translational only, a monatomic gas).
     polar : apply the Stockmayer (Brokaw 1969) correction for the gas's dipole moment.
+    quantum_virial : add the first quantum (Wigner–Kirkwood) term to B(T); off by default,
+        the classical B being what the transport properties use too.
     """
 
     gas: Gas
@@ -86,6 +124,7 @@ class ForwardModel:
     collision: str = "computed"
     internal: InternalEnergyTransport | None = None
     polar: bool = False
+    quantum_virial: bool = False
     _models: dict = field(default_factory=dict, repr=False)
 
     @property
@@ -115,7 +154,8 @@ class ForwardModel:
         return model
 
     def property(self, kind: str, theta: dict, T, pressure=None) -> np.ndarray:
-        """One property ('viscosity', 'conductivity', 'self_diffusion') at temperatures T (K), SI."""
+        """One property at temperatures T (K), SI: 'viscosity', 'conductivity', 'self_diffusion'
+        (needs ``pressure``, Pa) or 'second_virial' (m³/mol)."""
         tm = self.transport(theta)
         # σ, ε/k and internal parameters may be arrays of the shape of T (one value per point):
         # the likelihood evaluates many parameter sets in one call this way
@@ -123,8 +163,10 @@ class ForwardModel:
         eps = np.asarray(theta["epsilon_over_k"], dtype=float)
         M = self.gas.molar_mass
         T = np.asarray(T, dtype=float)
-        if kind == "self_diffusion" and pressure is None:
-            raise FitError("self-diffusion needs a pressure")
+        if kind == "self_diffusion" and (pressure is None or np.any(~np.isfinite(pressure))):
+            raise FitError("self-diffusion needs the pressure of every point")
+        if kind == "second_virial":
+            return self.second_virial(tm, T, sigma, eps)
         if not self.extended:
             if kind == "self_diffusion":
                 return tm.self_diffusion(T, pressure, M, sigma, eps)
@@ -139,6 +181,15 @@ class ForwardModel:
             raise FitError(f"no model for property '{kind}'")
         return res[kind]
 
+    def second_virial(self, tm: TransportModel, T, sigma, eps) -> np.ndarray:
+        """B(T) in m³/mol for σ in m (see :func:`second_virial_coefficient`)."""
+        if self.polar:
+            raise FitError(f"the second virial coefficient of the polar gas '{self.gas.name}' needs the dipole "
+                           "(Stockmayer) term, which fitkin does not compute: fit B(T) of a non-polar gas, "
+                           "or fit this gas's transport data without B")
+        return second_virial_coefficient(tm.potential, T, sigma, eps, quantum=self.quantum_virial,
+                                         molar_mass=self.gas.molar_mass)
+
     def predict(self, theta: dict, data: FitData) -> np.ndarray:
         """(n,) predictions in SI for every point of ``data``."""
         out = np.empty(len(data))
@@ -148,9 +199,10 @@ class ForwardModel:
         return out
 
     def unit_prediction(self, theta_eps: float, theta_shape: dict, data: FitData) -> np.ndarray:
-        """Predictions for σ = 1 Å; every property scales as 1/σ² at fixed ε/k and shape
-        (exactly for non-polar gases; the polar correction makes it approximate, which is
-        enough for a starting value)."""
+        """Predictions for σ = 1 Å. At fixed ε/k and shape the kinds of
+        :data:`INVERSE_SIGMA_SQUARED_KINDS` scale as 1/σ² (exactly for non-polar gases; the
+        polar correction makes it approximate, which is enough for a starting value) and the
+        second virial coefficient as σ³ (exactly when classical)."""
         theta = {"sigma": 1.0, "epsilon_over_k": theta_eps, **theta_shape}
         return self.predict(theta, data)
 
