@@ -163,6 +163,50 @@ class FittedGas:
         return self.predict("self_diffusion", T, pressure=p, band=band)
 
 
+    # -- convenience forms ---------------------------------------------------------------
+    def quantity(self, kind: str, T, pressure=None, band: float | None = None):
+        """The prediction as pint Quantities of fitkin's registry (``fitkin.units.ureg``).
+
+        ``T`` may be a number/array in K or a pint Quantity of temperature; with ``band`` the
+        result is (median, lower, upper) Quantities.
+        """
+        from .measurements import SI_UNITS
+        from .units import ureg
+        units = {**SI_UNITS, "self_diffusion": "m**2/s"}
+        if kind not in units:
+            raise FitkinError(f"unknown property '{kind}'; expected one of {', '.join(units)}")
+        if hasattr(T, "to"):
+            T = T.to(ureg.kelvin).magnitude
+        if hasattr(pressure, "to"):
+            pressure = pressure.to(ureg.pascal).magnitude
+        if kind == "self_diffusion" and pressure is None:
+            pressure = 101325.0
+        res = self.predict(kind, T, pressure=pressure, band=band)
+        unit = ureg.Unit(units[kind].replace(" ", "*"))
+        return tuple(r * unit for r in res) if band is not None else res * unit
+
+    def table(self, T, pressure: float = 101325.0, band: float | None = None):
+        """A pandas DataFrame of μ, k (when modelled) and D at temperatures T (K), SI columns
+        with units in their names, and an ``extrapolated`` flag."""
+        import pandas as pd
+        T = np.atleast_1d(np.asarray(T, dtype=float))
+        columns = {"T [K]": T}
+        kinds = [("viscosity", "viscosity [Pa s]", {}), ("conductivity", "conductivity [W/(m K)]", {}),
+                 ("self_diffusion", f"self_diffusion at {pressure:g} Pa [m^2/s]", {"pressure": pressure})]
+        for kind, name, kw in kinds:
+            if kind == "conductivity" and not self.has_conductivity_model:
+                continue
+            res = self.predict(kind, T, band=band, **kw)
+            if band is None:
+                columns[name] = res
+            else:
+                base, unit = name.rsplit(" [", 1)
+                columns[name], columns[f"{base} lower [{unit}"], columns[f"{base} upper [{unit}"] = res
+        lo, hi = self.temperature_range
+        columns["extrapolated"] = (T < lo) | (T > hi)
+        return pd.DataFrame(columns)
+
+
 def load_parameters(path) -> FittedGas:
     """Read a parameter file written by ``fitkin fit`` and return a :class:`FittedGas`."""
     return FittedGas(read_parameter_file(path), path=str(path))

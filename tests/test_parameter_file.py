@@ -96,3 +96,16 @@ def test_never_overwrites_without_force(saved):
     with pytest.raises(OutputExistsError, match="--force"):
         write_parameter_file({"x": 1}, path)
     assert path.read_text() == before
+
+
+def test_pint_quantities_and_dataframe(saved):
+    from fitkin.units import ureg
+    _, path, _ = saved
+    gas = load_parameters(path)
+    q = gas.quantity("viscosity", ureg.Quantity(np.array([26.85, 126.85]), ureg.degC))
+    np.testing.assert_allclose(q.to("uPa*s").magnitude, gas.viscosity([300.0, 400.0]) * 1e6, rtol=1e-12)
+    d = gas.quantity("self_diffusion", 300.0, pressure=ureg.Quantity(1.0, "bar"))
+    assert d.to("cm**2/s").magnitude == pytest.approx(gas.self_diffusion(300.0, p=1e5)[0] * 1e4)
+    df = gas.table([250.0, 1500.0], band=0.95)
+    assert list(df["extrapolated"]) == [False, True]
+    assert (df["viscosity lower [Pa s]"] < df["viscosity [Pa s]"]).all()
