@@ -90,8 +90,8 @@ def test_self_diffusion_row_without_pressure_is_named(tmp_path):
 
 
 def test_self_diffusion_range_is_judged_at_a_tenth_of_a_megapascal(tmp_path):
-    # D ∝ 1/p (Chapman–Enskog; Hirschfelder, Curtiss & Bird 1954, eq. 8.2-44): 18.8 cm²/s at
-    # 1 kPa is argon's 0.188 cm²/s at 0.1 MPa, plausible; the same number at 0.1 MPa is not.
+    # D ∝ 1/p in a dilute gas (Chapman–Enskog: ρD depends on T only; common practice): 18.8 cm²/s
+    # at 1 kPa is argon's 0.188 cm²/s at 0.1 MPa, plausible; the same number at 0.1 MPa is not.
     ok = write(tmp_path, "low_p.csv", "T [K],D [cm²/s],p [kPa]\n300,18.8,1\n")
     assert read_table(ok).get("self_diffusion").value == pytest.approx([1.88e-3])
     bad = write(tmp_path, "slip.csv", "T [K],D [m²/s],p [kPa]\n300,0.188,100\n400,0.30,100\n")
@@ -138,9 +138,22 @@ def test_second_virial_needs_stated_uncertainties():
         stack(mu, b_u)
 
 
+def test_polar_gas_with_second_virial_is_refused_clearly():
+    from fitkin.errors import GasError
+    from fitkin.species import DEBYE
+    # a dipole adds a Stockmayer term to B (Hirschfelder, Curtiss & Bird 1954, §3.10; from
+    # memory) that fitkin does not compute: a clear error, not a wrong B
+    polar = Gas.from_formula("H2O", name="water", dipole_moment=1.85 * DEBYE)
+    T = np.array([400.0, 500.0, 600.0, 700.0])
+    data = stack(series("second_virial", T, [-3.6e-4, -2.1e-4, -1.4e-4, -1.0e-4], [1e-5] * 4, "virial"))
+    with pytest.raises(GasError, match="Stockmayer"):
+        fit_least_squares(data, polar, LennardJones(), **FAST, internal=None)
+
+
 def test_profile_sigma_is_exact_for_mixed_scalings():
-    # B ∝ σ³ and μ ∝ 1/σ² at fixed ε/k (Hirschfelder, Curtiss & Bird 1954, eqs. 3.6-5 and 8.2-18):
-    # noise-free values made from σ = 3.7 Å (invented) give that σ back.
+    # B ∝ σ³ at fixed ε/k (Hirschfelder, Curtiss & Bird 1954, eq. 3.6-5) and μ ∝ 1/σ² (the
+    # Chapman–Enskog μ = (5/16)√(πmkT)/(πσ²Ω(2,2)*), from memory): noise-free values made from
+    # σ = 3.7 Å (invented) give that σ back.
     unit = np.array([2.0, 3.0, -1.5, 0.4])
     cubic = np.array([False, False, True, True])
     y = unit * np.where(cubic, 3.7**3, 3.7**-2)
@@ -148,6 +161,29 @@ def test_profile_sigma_is_exact_for_mixed_scalings():
     assert sigma == pytest.approx(3.7, rel=1e-6) and chi2 < 1e-10
     only_b = profile_sigma(unit[cubic], y[cubic], np.ones(2), cubic[cubic])
     assert only_b[0] == pytest.approx(3.7, rel=1e-6)
+
+
+def test_likelihood_paths_for_second_virial():
+    from fitkin.inference.likelihood import LogLikelihood
+    from fitkin.potentials import Mie
+    # the Mie shape stencil interpolates B itself (it changes sign), not ln B: it must agree with
+    # the exact B of each n to far below any measurement uncertainty (1e-3 of the rms |B|)
+    T = np.linspace(200.0, 900.0, 5)
+    data = stack(series("viscosity", T, T * 1e-7, T * 1e-9, "A"),
+                 series("second_virial", T, np.linspace(-3e-5, 1e-5, 5), np.full(5, 1e-6), "B"))
+    model = ForwardModel(ARGON, Mie(12.0, 6.0), free_shape=("n",))
+    x = np.array([[3.40, 120.0, 12.3], [3.35, 130.0, 12.75], [3.45, 110.0, 12.5]])
+    b = data.mask("second_virial")
+    for row, (s, e, n) in zip(LogLikelihood(model, data).predict(x), x):
+        ref = model.predict({"sigma": s, "epsilon_over_k": e, "n": n}, data)
+        np.testing.assert_allclose(row[~b], ref[~b], rtol=1e-5)
+        assert np.max(np.abs(row[b] - ref[b])) < 1e-3 * np.sqrt(np.mean(ref[b] ** 2))
+    # the extra scatter of B points scales with the rms |B| of the fit, not with B itself (which
+    # vanishes at the Boyle temperature)
+    lik = LogLikelihood(ForwardModel(ARGON, LennardJones(), **FAST), data, extra_scatter=True)
+    assert lik._scatter_scale[b] == pytest.approx(np.full(5, np.sqrt(np.mean(data.value[b] ** 2))))
+    assert lik._scatter_scale[~b] == pytest.approx(data.value[~b])
+    assert np.isfinite(lik(np.array([[3.4, 120.0, -2.0]]))[0])
 
 
 # --- fits --------------------------------------------------------------------------------
@@ -209,28 +245,55 @@ def test_joint_viscosity_and_virial_fit_narrows_the_parameters(argon_joint):
     assert 3.33 < joint.value("sigma") < 3.43
     assert 115.0 < joint.value("epsilon_over_k") < 145.0
     # the point of a joint fit: B(T) pins ε/k, so both standard errors shrink (measured when
-    # written: σ by a factor of about 2, ε/k by a factor of about 3) ...
+    # written: σ 0.0042 → 0.0023 Å, ×1.8; ε/k 1.29 → 0.51 K, ×2.5) ...
     for name in ("sigma", "epsilon_over_k"):
         assert joint.parameters[name].stderr < 0.7 * alone.parameters[name].stderr, name
-    # ... and the viscosity-only ridge (r ≈ −0.94) loosens
+    # ... and the viscosity-only ridge (r ≈ −0.94) loosens (measured: r ≈ −0.78)
     r_alone, r_joint = alone.correlation[0, 1], joint.correlation[0, 1]
     assert r_alone < -0.9
     assert abs(r_joint) < abs(r_alone) - 0.1 or np.sign(r_joint) != np.sign(r_alone)
+    # one 12-6 potential does not carry argon's μ and B within 0.5 % and 2 % at once (LJ sets
+    # fitted to B and to viscosity differ, Hirschfelder, Curtiss & Bird 1954, Table I-A; from
+    # memory): reduced χ² ≈ 4, and the fit says so rather than hiding it
+    assert any("poor fit" in w for w in joint.warnings)
 
 
-def test_sampler_on_viscosity_plus_virial():
-    from fitkin.inference.sampling import sample_posterior
-    # Invented truth (σ = 3.40 Å, ε/k = 120 K) through the first-approximation Neufeld model
-    # (Neufeld, Janzen & Aziz 1972) for μ and classical B; seeded noise at the stated u.
-    truth = {"sigma": 3.40, "epsilon_over_k": 120.0}
+SYNTHETIC_TRUTH = {"sigma": 3.40, "epsilon_over_k": 120.0}  # invented, not argon's
+
+
+@pytest.fixture(scope="module")
+def synthetic_mu_b():
+    # Invented truth through the first-approximation Neufeld model (Neufeld, Janzen & Aziz 1972)
+    # for μ and classical B; seeded noise at the stated u (0.5 % and 1 cm³/mol).
     rng = np.random.default_rng(21)
     T = np.linspace(150.0, 900.0, 12)
-    mu = model_values("viscosity", T, truth)
-    B = model_values("second_virial", T, truth)
-    data = stack(series("viscosity", T, mu * (1 + 0.005 * rng.standard_normal(12)), 0.005 * mu, "visc"),
-                 series("second_virial", T, B + 1e-6 * rng.standard_normal(12), np.full(12, 1e-6), "virial"))
-    post = sample_posterior(data, ARGON, **FAST, seed=4, max_steps=4000)
+    mu = model_values("viscosity", T, SYNTHETIC_TRUTH)
+    B = model_values("second_virial", T, SYNTHETIC_TRUTH)
+    visc = series("viscosity", T, mu * (1 + 0.005 * rng.standard_normal(12)), 0.005 * mu, "visc")
+    virial = series("second_virial", T, B + 1e-6 * rng.standard_normal(12), np.full(12, 1e-6), "virial")
+    return visc, virial
+
+
+def test_joint_fit_narrows_when_the_model_is_right(synthetic_mu_b):
+    # With data the model describes exactly the gain is free of model tension (measured when
+    # written: σ ×2.0, ε/k ×3.0 smaller; r −0.94 → −0.72; reduced χ² 1.2 and 1.4).
+    visc, virial = synthetic_mu_b
+    alone = fit_least_squares(stack(visc), ARGON, LennardJones(), **FAST)
+    joint = fit_least_squares(stack(visc, virial), ARGON, LennardJones(), **FAST)
+    for name, value in SYNTHETIC_TRUTH.items():
+        assert joint.parameters[name].stderr < 0.6 * alone.parameters[name].stderr, name
+        assert abs(joint.value(name) - value) < 3 * joint.parameters[name].stderr, name
+    assert abs(joint.correlation[0, 1]) < abs(alone.correlation[0, 1]) - 0.1
+
+
+def test_sampler_on_viscosity_plus_virial(synthetic_mu_b):
+    from fitkin.inference.sampling import sample_posterior
+    post = sample_posterior(stack(*synthetic_mu_b), ARGON, **FAST, seed=4, max_steps=4000)
     assert post.converged, post.convergence_message
-    for name, value in truth.items():
+    for name, value in SYNTHETIC_TRUTH.items():
         # common practice: the truth within 3 posterior standard deviations
         assert abs(post.median(name) - value) < 3 * np.std(post.column(name)), name
+    # Bernstein–von Mises (van der Vaart, Asymptotic Statistics, 1998, §10.2): flat priors and
+    # well-determined parameters, so the posterior sd matches the least-squares error (15 %)
+    for name, cmp in post.least_squares_comparison().items():
+        assert cmp["ratio_sd_to_stderr"] == pytest.approx(1.0, abs=0.15), name

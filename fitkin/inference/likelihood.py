@@ -61,9 +61,7 @@ def _self_diffusion(tm, T, p, M, sigma, eps):
 
 
 def _second_virial(tm, T, p, M, sigma, eps, *, quantum=False):
-    # classical B = b0(σ) B*(T/ε) of the transport model's potential, vectorised over points
-    # (Hirschfelder, Curtiss & Bird 1954, eqs. 3.6-2 to 3.6-5); quantum: first
-    # Wigner–Kirkwood term (ibid. §6.5), used when the forward model asks for it
+    # B = b0(σ) B*(T/ε) of the model's potential (see fitkin.inference.model); vectorised
     return second_virial_coefficient(tm.potential, T, sigma, eps, quantum=quantum, molar_mass=M)
 
 

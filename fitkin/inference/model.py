@@ -17,7 +17,7 @@ from dataclasses import dataclass, field
 import numpy as np
 from scipy import constants
 
-from ..errors import FitError, OutOfRangeError
+from ..errors import FitError, GasError, OutOfRangeError
 from ..species import Gas
 from ..thermo import MonatomicHeatCapacity
 from ..theory.internal import InternalEnergyTransport, transport_with_internal_energy
@@ -184,7 +184,7 @@ class ForwardModel:
     def second_virial(self, tm: TransportModel, T, sigma, eps) -> np.ndarray:
         """B(T) in m³/mol for σ in m (see :func:`second_virial_coefficient`)."""
         if self.polar:
-            raise FitError(f"the second virial coefficient of the polar gas '{self.gas.name}' needs the dipole "
+            raise GasError(f"the second virial coefficient of the polar gas '{self.gas.name}' needs the dipole "
                            "(Stockmayer) term, which fitkin does not compute: fit B(T) of a non-polar gas, "
                            "or fit this gas's transport data without B")
         return second_virial_coefficient(tm.potential, T, sigma, eps, quantum=self.quantum_virial,
