@@ -435,26 +435,31 @@ Each method takes temperatures in K and returns SI values; with `band=0.95` it r
 (median, lower, upper) of a central 95 % band from parameter draws: out of the saved
 covariance here, or from the posterior samples when a fit was sampled (`band_source` says
 which). The measured range is `temperature_range`; anything outside it is an
-extrapolation, which the table below flags (as the `extrapolated` column of `fitkin predict`
-does).
+extrapolation. `table` gives everything at once as a pandas DataFrame in SI, with an
+`extrapolated` column (as `fitkin predict` does):
 """),
     _code(r"""
 T = np.array([150.0, 250.0, 400.0, 600.0, 850.0, 1200.0, 1500.0])
+table = krypton.table(T, pressure=101325.0, band=0.95)
+print("measured range:", krypton.temperature_range, "K; bands from", krypton.band_source)
+with pd.option_context("display.float_format", "{:.5g}".format):
+    display(table)
+"""),
+    _md(r"""
+The same numbers in the units a lab reads, with the band as a half-width in percent:
+"""),
+    _code(r"""
 mu, mu_lo, mu_hi = krypton.viscosity(T, band=0.95)
 k, k_lo, k_hi = krypton.conductivity(T, band=0.95)
-D = krypton.self_diffusion(T, p=101325.0)
-low, high = krypton.temperature_range
-
-table = pd.DataFrame({
+pd.DataFrame({
     "T [K]": T,
     "μ [µPa s]": mu * 1e6,
     "μ 95 % half-width [%]": 50 * (mu_hi - mu_lo) / mu,
     "k [mW/(m K)]": k * 1e3,
     "k 95 % half-width [%]": 50 * (k_hi - k_lo) / k,
-    "D at 1 atm [cm²/s]": D * 1e4,
-    "extrapolated": np.where((T < low) | (T > high), "yes", "no"),
-})
-table.round(4)
+    "D at 1 atm [cm²/s]": table["self_diffusion at 101325 Pa [m^2/s]"] * 1e4,
+    "extrapolated": np.where(table["extrapolated"], "yes", "no"),
+}).round(4)
 """),
     _md(r"""
 The bands widen outside the measured range, but a band only describes the uncertainty of the
@@ -475,26 +480,28 @@ pd.DataFrame({"T [K]": T, "B [cm³/mol]": B * 1e6}).round(2)
     _md(r"""
 ## 3. Units: pint Quantities
 
-The `FittedGas` methods take and return plain numbers in SI. To hand values to code that works
-with units, wrap them with fitkin's unit registry `fitkin.units.ureg` (a
-[pint](https://pint.readthedocs.io) registry) and convert to whatever the flow code wants.
-Use the same registry for every quantity you combine: pint refuses to mix quantities of two
-registries.
+The plain methods take and return numbers in SI. `quantity(kind, T, ...)` returns
+[pint](https://pint.readthedocs.io) Quantities of fitkin's unit registry `fitkin.units.ureg`
+instead, and accepts temperatures and pressures as Quantities in any unit; convert the result to
+whatever the flow code wants. Use this same registry for every quantity you combine with them:
+pint refuses to mix quantities of two registries. (For plain numbers from elsewhere,
+`ureg.Quantity(value, "Pa*s")` wraps them.)
 """),
     _code(r"""
 from fitkin.units import ureg
 
 t_process = ureg.Quantity(np.array([20.0, 150.0, 400.0]), "degC")
-t_kelvin = t_process.to("K").magnitude
-viscosity = ureg.Quantity(krypton.viscosity(t_kelvin), "Pa * s")
-conductivity = ureg.Quantity(krypton.conductivity(t_kelvin), "W / (m * K)")
-diffusion = ureg.Quantity(krypton.self_diffusion(t_kelvin, p=ureg.Quantity(2.0, "bar").to("Pa").magnitude), "m**2 / s")
+viscosity = krypton.quantity("viscosity", t_process)
+conductivity = krypton.quantity("conductivity", t_process)
+diffusion = krypton.quantity("self_diffusion", t_process, pressure=ureg.Quantity(2.0, "bar"))
+mu_median, mu_lower, mu_upper = krypton.quantity("viscosity", t_process, band=0.95)
 
 print(f"T:          {t_process.magnitude} °C = {t_process.to('K'):.5g~P}")
 print(f"viscosity:  {viscosity.to('cP'):.5g~P}")
 print(f"            {viscosity.to('lbf * s / ft**2'):.5g~P}")
 print(f"k:          {conductivity.to('Btu / (hour * ft * degF)'):.5g~P}")
 print(f"D at 2 bar: {diffusion.to('cm**2 / s'):.5g~P}")
+print(f"μ 95 %:     {mu_lower.to('uPa*s'):.5g~P} to {mu_upper.to('uPa*s'):.5g~P}")
 """),
     _md(r"""
 ## 4. A binary mixture: krypton with argon
