@@ -184,6 +184,8 @@ def test_likelihood_paths_for_second_virial():
     assert lik._scatter_scale[b] == pytest.approx(np.full(5, np.sqrt(np.mean(data.value[b] ** 2))))
     assert lik._scatter_scale[~b] == pytest.approx(data.value[~b])
     assert np.isfinite(lik(np.array([[3.4, 120.0, -2.0]]))[0])
+    with pytest.raises(FitError, match="change sign"):
+        LogLikelihood(ForwardModel(ARGON, LennardJones(), **FAST), data, calibrate_sources={"B": 0.02})
 
 
 # --- fits --------------------------------------------------------------------------------

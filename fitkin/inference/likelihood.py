@@ -5,9 +5,8 @@ the nuisance parameters — ``log10_scatter`` (a relative extra scatter s added 
 σ_i² = u_i² + (s y_i)²) when requested, and one multiplicative calibration factor
 ``calibration[SOURCE]`` per calibrated source (measured value = c_j × true value).
 
-The second virial coefficient B changes sign, so s y_i would vanish near its Boyle
-temperature: for B points the extra scatter is s times the root-mean-square |B| of the B
-points of the fit (one scale per fit, a choice of this program).
+B changes sign, so s y_i would vanish near its Boyle temperature: for B points the extra
+scatter is s times the rms |B| of the fit's B points (a choice of this program).
 
 Forms
 -----
@@ -16,9 +15,8 @@ Forms
   outliers (Lange, Little & Taylor, J. Am. Stat. Assoc. 84, 881 (1989); ν = 4 by default,
   their suggestion).
 
-Every measured kind enters through :data:`PROPERTY_PREDICTORS` (viscosity, conductivity,
-self-diffusion D(T, p), second virial coefficient B(T)): a kind added there and to the
-readers joins the same likelihood.
+Every measured kind (μ, k, D(T, p), B(T)) enters through :data:`PROPERTY_PREDICTORS`: a kind
+added there and to the readers joins the same likelihood.
 """
 from __future__ import annotations
 
@@ -60,8 +58,7 @@ def _self_diffusion(tm, T, p, M, sigma, eps):
     return tm.self_diffusion(T, p, M, sigma, eps)
 
 
-def _second_virial(tm, T, p, M, sigma, eps, *, quantum=False):
-    # B = b0(σ) B*(T/ε) of the model's potential (see fitkin.inference.model); vectorised
+def _second_virial(tm, T, p, M, sigma, eps, *, quantum=False):  # B = b0(σ) B*(T/ε), vectorised
     return second_virial_coefficient(tm.potential, T, sigma, eps, quantum=quantum, molar_mass=M)
 
 
@@ -125,6 +122,9 @@ class LogLikelihood:
             if str(source) not in known:
                 raise FitError(f"--calibrate names source '{source}', which no data point has; "
                                f"the sources are: {', '.join(known)}")
+            if any(k in SIGNED_KINDS for k, src in zip(self.data.kind, self.sources) if src == str(source)):
+                raise FitError(f"--calibrate {source}: a calibration factor means nothing for second virial "
+                               "coefficients, which change sign; include their systematic uncertainty in u(B)")
             rel_u = float(rel_u)
             if not (0 < rel_u < 1):
                 raise FitError(f"the relative systematic uncertainty of source '{source}' must be between 0 and 1 "
@@ -343,8 +343,7 @@ def parse_calibration(text: str) -> tuple[str, float]:
 
 
 def _scatter_scale(data: FitData) -> np.ndarray:
-    """(n,) the magnitude the relative extra scatter multiplies: |y_i|, or for B points
-    the rms |B| of all B points (see the module docstring)."""
+    """(n,) what the relative extra scatter multiplies: |y_i|, or the rms |B| for B points."""
     y = np.abs(np.asarray(data.value, dtype=float))
     signed = np.isin(np.asarray(data.kind, dtype=object), SIGNED_KINDS)
     if signed.any():

@@ -85,9 +85,8 @@ QUANTITY_KINDS: tuple[QuantityKind, ...] = (
     QuantityKind(
         name="self_diffusion", label="self-diffusion coefficient", role="property",
         si_unit="m^2/s",
-        synonyms=("self_diffusion", "d", "self-diffusion", "self diffusion",
-                  "self-diffusion coefficient", "self diffusion coefficient",
-                  "diffusion coefficient", "diffusion"),
+        synonyms=("D", "self-diffusion", "self diffusion", "self-diffusion coefficient",
+                  "self diffusion coefficient", "diffusion coefficient", "diffusion"),
         # D ∝ 1/p, so the window applies to D scaled to 0.1 MPa (p D / 0.1 MPa; the reader
         # does the scaling): at 0.1 MPa heavy vapours near their boiling points show about
         # 2e-6 m²/s and helium or hydrogen at a few thousand K about 5e-3 m²/s (from memory;
@@ -99,8 +98,7 @@ QUANTITY_KINDS: tuple[QuantityKind, ...] = (
     QuantityKind(
         name="second_virial", label="second virial coefficient", role="property",
         si_unit="m^3/mol",
-        synonyms=("second_virial", "b", "b2", "second virial coefficient", "second virial",
-                  "virial coefficient"),
+        synonyms=("B", "second virial coefficient", "B2", "second virial", "virial coefficient"),
         # B changes sign at the Boyle temperature: not "positive". From about +15 cm³/mol
         # (helium, hydrogen) down to a few thousand cm³/mol negative (heavy vapours near
         # saturation, e.g. water about −1100 cm³/mol at 300 K; from memory); the window
