@@ -188,6 +188,25 @@ def test_likelihood_paths_for_second_virial():
         LogLikelihood(ForwardModel(ARGON, LennardJones(), **FAST), data, calibrate_sources={"B": 0.02})
 
 
+def test_quantum_virial_hook_matches_the_theory_routine():
+    from fitkin.inference.likelihood import LogLikelihood
+    from fitkin.theory.virial import second_virial
+    # the first Wigner–Kirkwood term (Hirschfelder, Curtiss & Bird 1954, §6.5) through the forward
+    # model and the likelihood equals fitkin.theory.virial.second_virial(quantum=True); for neon-
+    # like parameters (σ = 2.8 Å, ε/k = 35 K, invented near neon's) it raises B by a few cm³/mol
+    # at 40 K (sign and size from memory: the quantum correction to B is positive)
+    neon = Gas.from_formula("Ne", name="neon")
+    T = np.array([40.0, 80.0, 200.0])
+    theta = {"sigma": 2.8, "epsilon_over_k": 35.0}
+    exact = second_virial(LennardJones(), T, 2.8e-10, 35.0, quantum=True, molar_mass=neon.molar_mass)
+    model = ForwardModel(neon, LennardJones(), **FAST, quantum_virial=True)
+    np.testing.assert_allclose(model.property("second_virial", theta, T), exact, rtol=1e-12)
+    classical = ForwardModel(neon, LennardJones(), **FAST).property("second_virial", theta, T)
+    assert 0.5e-6 < exact[0] - classical[0] < 10e-6
+    data = stack(series("second_virial", T, exact, np.full(3, 1e-6), "virial"))
+    np.testing.assert_allclose(LogLikelihood(model, data).predict(np.array([[2.8, 35.0]]))[0], exact, rtol=1e-12)
+
+
 # --- fits --------------------------------------------------------------------------------
 
 def test_synthetic_self_diffusion_recovered(tmp_path):
