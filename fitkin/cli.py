@@ -54,6 +54,9 @@ def _add_table_options(p: argparse.ArgumentParser) -> None:
                    help="unit of a column whose header gives none, e.g. T=degC or viscosity='uPa s'")
     p.add_argument("--pressure-limit", default="1 MPa", metavar="P",
                    help="warn about points stated above this pressure (default: 1 MPa)")
+    p.add_argument("--pressure", dest="table_pressure", metavar="P",
+                   help="pressure of every point of tables without a pressure column, e.g. '101.325 kPa' "
+                        "(needed for self-diffusion data)")
 
 
 def build_parser() -> argparse.ArgumentParser:
@@ -79,8 +82,9 @@ def build_parser() -> argparse.ArgumentParser:
     p.add_argument("--name", help="name of the gas in outputs (default: the formula)")
     p.add_argument("--out", required=True, metavar="DIR", help="folder for parameters.json and the report")
     p.add_argument("--force", action="store_true", help="replace existing outputs in DIR")
-    p.add_argument("--property", choices=("viscosity", "conductivity", "both"), default="both",
-                   help="which measured properties to fit (default: all found)")
+    p.add_argument("--property", default="all", metavar="KINDS",
+                   help="which measured properties to fit, comma-separated from viscosity, conductivity, "
+                        "self_diffusion, second_virial (default: all found in the tables)")
     p.add_argument("--potential", default="lj", metavar="NAMES",
                    help="pair potential(s), comma-separated: lj (Lennard-Jones 12-6, default), mie (Mie n-6 "
                         "with n fitted), mie:N (n fixed), exp6 (exp-6 with α fitted), exp6:ALPHA, hs (hard "

@@ -112,6 +112,15 @@ class FittedGas:
         return "covariance"  # not sampled, or the samples file was not kept beside the parameter file
 
     @property
+    def has_virial_model(self) -> bool:
+        """False for a polar gas (no Stockmayer second virial coefficient in fitkin)."""
+        return not self._forward.polar
+
+    def second_virial(self, T, band: float | None = None):
+        """Second virial coefficient B(T) in m³/mol (classical; see :mod:`fitkin.theory.virial`)."""
+        return self.predict("second_virial", T, band=band)
+
+    @property
     def has_conductivity_model(self) -> bool:
         """False for a polyatomic gas fitted without an internal-energy conductivity model."""
         from .inference.model import is_monatomic
@@ -186,15 +195,17 @@ class FittedGas:
         return tuple(r * unit for r in res) if band is not None else res * unit
 
     def table(self, T, pressure: float = 101325.0, band: float | None = None):
-        """A pandas DataFrame of μ, k (when modelled) and D at temperatures T (K), SI columns
+        """A pandas DataFrame of μ, k (when modelled), D and B at temperatures T (K), SI columns
         with units in their names, and an ``extrapolated`` flag."""
         import pandas as pd
         T = np.atleast_1d(np.asarray(T, dtype=float))
         columns = {"T [K]": T}
         kinds = [("viscosity", "viscosity [Pa s]", {}), ("conductivity", "conductivity [W/(m K)]", {}),
-                 ("self_diffusion", f"self_diffusion at {pressure:g} Pa [m^2/s]", {"pressure": pressure})]
+                 ("self_diffusion", f"self_diffusion at {pressure:g} Pa [m^2/s]", {"pressure": pressure}),
+                 ("second_virial", "second_virial [m^3/mol]", {})]
         for kind, name, kw in kinds:
-            if kind == "conductivity" and not self.has_conductivity_model:
+            if (kind == "conductivity" and not self.has_conductivity_model) or \
+                    (kind == "second_virial" and not self.has_virial_model):
                 continue
             res = self.predict(kind, T, band=band, **kw)
             if band is None:

@@ -155,13 +155,24 @@ def fit_files(tables, gas, *, choices, opts: FitOptions, kinds, out_dir, force, 
     return results, paths, text
 
 
+def _kinds(text: str):
+    from ..measurements import PROPERTY_KINDS
+    if text.strip() in ("all", "both", ""):
+        return None
+    kinds = tuple(k.strip() for k in text.split(",") if k.strip())
+    unknown = [k for k in kinds if k not in PROPERTY_KINDS]
+    if unknown:
+        raise FitkinError(f"--property: unknown {', '.join(unknown)}; choose from {', '.join(PROPERTY_KINDS)} or all")
+    return kinds
+
+
 def run_fit(args, out) -> int:
     from ..units import parse_quantity
     tables = read_from_args(args)
     for t in tables:
         for w in t.warnings:
             print(f"warning: {w}", file=out)
-    kinds = None if args.property == "both" else (args.property,)
+    kinds = _kinds(args.property)
     opts = FitOptions(order=args.order, collision=args.collision, internal=_internal_from_args(args),
                       polar=False if args.no_polar else None, sample=_sampling_from_args(args),
                       report=not args.no_report,

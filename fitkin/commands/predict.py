@@ -49,10 +49,13 @@ def prediction_table(gas, T, pressure, band=None, pair=None, x1=None):
     cols = [("T [K]", T)]
     specs = [("viscosity", "viscosity [uPa s]", 1e6, {}),
              ("conductivity", "thermal conductivity [mW/(m K)]", 1e3, {}),
-             ("self_diffusion", f"self-diffusion at {pressure:g} Pa [cm^2/s]", 1e4, {"pressure": pressure})]
+             ("self_diffusion", f"self-diffusion at {pressure:g} Pa [cm^2/s]", 1e4, {"pressure": pressure}),
+             ("second_virial", "second virial coefficient [cm^3/mol]", 1e6, {})]
     for kind, header, scale, kw in specs:
         if kind == "conductivity" and not gas.has_conductivity_model:
             continue  # a polyatomic gas fitted without internal-energy model: said in the comment line
+        if kind == "second_virial" and not gas.has_virial_model:
+            continue  # polar gas: no Stockmayer B
         res = gas.predict(kind, T, band=band, **kw)
         _with_band(cols, header, tuple(r * scale for r in res) if band is not None else res * scale, band)
     if pair is not None:

@@ -21,8 +21,10 @@ def read_from_args(args):
     from ..io import read_tables
     from ..units import parse_quantity
     limit = parse_quantity(args.pressure_limit, "Pa", name="--pressure-limit")
+    pressure = (parse_quantity(args.table_pressure, "Pa", name="--pressure")
+                if getattr(args, "table_pressure", None) else None)
     return read_tables(args.files, sheet=args.sheet, units=_unit_overrides(args.unit) or None,
-                       pressure_limit=limit)
+                       pressure_limit=limit, default_pressure=pressure)
 
 
 def run_check(args, out) -> int:

@@ -91,9 +91,16 @@ def comparison_rows(fits):
             "potential": choice.label,
             "parameters": {n: [p.value, p.stderr] for n, p in res.parameters.items() if p.vary},
             "reduced_chi2": res.reduced_chi2, "aic": aic, "bic": bic, "delta_bic": bic - best,
-            "max_abs_deviation_percent": float(np.max(np.abs(res.residual_percent))),
+            "max_abs_deviation_percent": _max_relative_deviation(res),
         })
     return rows
+
+
+def _max_relative_deviation(res: FitResult) -> float:
+    """Largest |deviation| in % over the kinds where a relative deviation means something."""
+    from ..measurements import SIGNED_KINDS
+    keep = ~np.isin(res.data.kind, SIGNED_KINDS)
+    return float(np.max(np.abs(res.residual_percent[keep]))) if np.any(keep) else float("nan")
 
 
 def format_comparison(rows) -> str:

@@ -20,6 +20,7 @@ import scipy
 
 from .. import __version__
 from ..errors import ParameterFileError
+from ..measurements import SIGNED_KINDS
 from .atomic import write_text_atomic
 
 __all__ = ["SCHEMA_NAME", "SCHEMA_VERSION", "result_to_record", "write_parameter_file", "read_parameter_file"]
@@ -53,6 +54,8 @@ def result_to_record(result, tables=(), t_star_range=None) -> dict:
     """
     data = result.data
     dev = result.residual_percent
+    relative = ~np.isin(data.kind, SIGNED_KINDS)  # % deviations mean nothing for a B that changes sign
+    dev_rel = dev[relative] if np.any(relative) else np.array([np.nan])
     settings = dict(result.model_settings)
     record = {
         "schema": SCHEMA_NAME,
@@ -68,8 +71,9 @@ def result_to_record(result, tables=(), t_star_range=None) -> dict:
         "correlation": {"names": list(result.names), "matrix": result.correlation},
         "statistics": {"chi2": result.chi2, "dof": result.dof, "reduced_chi2": result.reduced_chi2,
                        "weighting": settings.get("weighting"), "points": len(data),
-                       "rms_deviation_percent": float(np.sqrt(np.mean(dev**2))),
-                       "max_abs_deviation_percent": float(np.max(np.abs(dev))),
+                       "rms_deviation_percent": float(np.sqrt(np.mean(dev_rel**2))),
+                       "max_abs_deviation_percent": float(np.max(np.abs(dev_rel))),
+                       "deviation_percent_excludes": [k for k in SIGNED_KINDS if k in data.kinds],
                        "optimiser_success": result.success, "optimiser_message": result.message,
                        "evaluations": result.evaluations},
         "theory": {"sonine_order": settings.get("sonine_order"),

@@ -12,6 +12,8 @@ import datetime as _dt
 from html import escape
 from pathlib import Path
 
+import numpy as np
+
 from .. import __version__
 from ..errors import OutputExistsError
 from ..io.atomic import check_can_write, write_bytes_atomic, write_text_atomic
@@ -45,6 +47,15 @@ def _prepare(record: dict, record_path=None, pressure: float = 101325.0) -> Repo
     ctx.curves = {k: model.curve(k, T) for k in st.DISPLAY}
     ctx.comparison = elementary_comparison(record, pressure=pressure, model=model)
     ctx.findings = report_findings(record, model)
+    unplotted = sorted({r.get("property") for r in record.get("residuals") or []} - set(st.DISPLAY))
+    for kind in unplotted:
+        rows = [r for r in record["residuals"] if r.get("property") == kind]
+        z = [(r["measured_SI"] - r["model_SI"]) / r["uncertainty_SI"] for r in rows
+             if isinstance(r.get("uncertainty_SI"), (int, float)) and r["uncertainty_SI"] > 0]
+        rms = f"; rms (measured − fit)/u = {np.sqrt(np.mean(np.square(z))):.2f}" if z else ""
+        ctx.findings.append(Finding("note", f"{len(rows)} {kind.replace('_', ' ')} points entered the fit but are "
+                                            f"not plotted in this report{rms}; their residuals are in the "
+                                            "parameter file"))
     if any(c.source == "none" for c in ctx.curves.values()):
         ctx.findings.insert(0, Finding("warning", "the parameter file has no usable covariance or samples, so the "
                                                   "curves carry no uncertainty band: the parameters' uncertainty "
@@ -67,7 +78,7 @@ def _figures(ctx: ReportContext) -> None:
                        f"{kind.capitalize()} {sym} [{unit}] against temperature: {what}; the Chapman–Enskog fit "
                        f"with its {100 * curve.probability:.0f} % band from {band}; dashed and tinted where "
                        f"extrapolated. Below: the band's half-widths relative to the fit.")
-    if rec.get("residuals"):
+    if any(r.get("property") in st.DISPLAY for r in rec.get("residuals") or []):
         ctx.add_figure("deviations", fg.deviation_figure(rec, ctx.curves),
                        f"Deviations 100 (measured − fit)/fit against temperature, one marker per source ({bars}); "
                        "shaded: the fit's 95 % band.")
