@@ -161,14 +161,20 @@ def _check_sources(lik: LogLikelihood, start, robust: bool) -> list[str]:
     if len(offsets) < 2:
         return []
     items = list(offsets.items())
+    data = start.data
+    kinds_of = {src: set(data.kind[data.source == src]) for src, _ in items}
     worst = None
     for i in range(len(items)):
         for j in range(i + 1, len(items)):
             (a, (da, sa, _)), (b, (db, sb, _)) = items[i], items[j]
+            if not kinds_of[a] & kinds_of[b]:
+                continue  # sources of different properties: an offset between them is the model's, not theirs
             width = math.sqrt(sa**2 + sb**2 + lik.calibration.get(a, 0.0) ** 2 + lik.calibration.get(b, 0.0) ** 2)
             z = abs(da - db) / width
             if worst is None or z > worst[0]:
                 worst = (z, a, b, da, db)
+    if worst is None:
+        return []
     z, a, b, da, db = worst
     if z <= CONTRADICTION_Z:
         return []
