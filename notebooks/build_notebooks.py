@@ -466,16 +466,12 @@ The bands widen outside the measured range, but a band only describes the uncert
 parameters **within the model**: it cannot show that the potential shape itself stops being
 adequate far from the data. Treat extrapolated values accordingly.
 
-The second virial coefficient B(T) follows from the same potential
-(`fitkin.theory.virial.second_virial`; σ in m, result in m³/mol):
+The second virial coefficient B(T), a property the lab did not measure, follows from the same
+potential (`second_virial`, m³/mol, classical; with a band like the others):
 """),
     _code(r"""
-from fitkin.fitted import potential_from_record
-from fitkin.theory.virial import second_virial
-
-shape = potential_from_record(krypton.record["potential"])
-B = second_virial(shape, T, krypton.sigma, krypton.epsilon_over_k)
-pd.DataFrame({"T [K]": T, "B [cm³/mol]": B * 1e6}).round(2)
+B, B_lo, B_hi = krypton.second_virial(T, band=0.95)
+pd.DataFrame({"T [K]": T, "B [cm³/mol]": B * 1e6, "95 % lower": B_lo * 1e6, "95 % upper": B_hi * 1e6}).round(2)
 """),
     _md(r"""
 ## 3. Units: pint Quantities
