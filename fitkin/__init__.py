@@ -6,6 +6,8 @@ The main entry points, importable from the top level:
 * :class:`Gas` — the gas (formula or molar mass).
 * :func:`fit_least_squares` — σ, ε/k (and shape parameters) with standard errors.
 * :class:`TransportModel` — Chapman–Enskog μ, k, D for a potential shape.
+* :func:`sample_posterior` — the posterior of the same parameters (emcee).
+* :func:`save_fit` — parameter file, samples and report in one call.
 * :func:`load_parameters` — a saved fit, for reuse downstream.
 """
 from importlib import import_module
@@ -24,6 +26,10 @@ _LAZY = {
     "FitData": "fitkin.inference.fitdata",
     "TransportModel": "fitkin.theory.transport",
     "load_parameters": "fitkin.fitted",
+    "save_fit": "fitkin.saving",
+    "describe_table": "fitkin.io",
+    "sample_posterior": "fitkin.inference.sampling",
+    "compare_potentials": "fitkin.inference.compare",
     "FittedGas": "fitkin.fitted",
 }
 

@@ -11,6 +11,17 @@ _LABELS = {"sigma": "σ", "epsilon_over_k": "ε/k", "n": "n", "alpha": "α"}
 _UNIT_TEXT = {"angstrom": "Å", "K": "K", "1": ""}
 
 
+def _potential_text(settings: dict) -> str:
+    from .fitted import potential_from_record
+    try:
+        text = potential_from_record({"name": settings.get("potential"),
+                                      "shape_parameters": settings.get("shape_parameters") or {}}).describe()
+    except Exception:  # a shape fitkin cannot rebuild (tabulated): its name is enough here
+        text = str(settings.get("potential"))
+    free = settings.get("free_shape") or []
+    return f"{text} potential" + (f" ({', '.join(free)} fitted)" if free else "")
+
+
 def format_estimate(value: float, stderr: float) -> str:
     """'3.6512 ± 0.0041' with the error given to two significant figures."""
     if not np.isfinite(stderr) or stderr <= 0:
@@ -23,8 +34,14 @@ def format_fit_summary(result, record_path=None, truth: dict | None = None) -> s
     """A readable account of a fit: data, parameters, correlation, quality, warnings."""
     lines = [f"Gas: {result.gas.name}  (M = {result.gas.molar_mass * 1e3:.4f} g/mol)"]
     s = result.model_settings
-    lines.append(f"Model: potential {s.get('potential')} {s.get('shape_parameters') or ''}, "
-                 f"Chapman–Enskog order {s.get('sonine_order')}, collision integrals {s.get('collision_integrals')}")
+    lines.append(f"Model: {_potential_text(s)}, Chapman–Enskog order {s.get('sonine_order')}, "
+                 f"collision integrals {s.get('collision_integrals')}")
+    internal = s.get("internal_energy")
+    if internal:
+        lines.append(f"Conductivity: internal energy by {internal.get('model')}"
+                     + (", polar (Stockmayer) correction" if s.get("polar_correction") else ""))
+    elif s.get("polar_correction"):
+        lines.append("Polar (Stockmayer) correction of the collision integrals")
     for kind, info in result.data.summary().items():
         lines.append(f"Data: {kind}: {info['points']} points, {info['T_min_K']:.1f}–{info['T_max_K']:.1f} K, "
                      f"sources {', '.join(info['sources'])}")

@@ -276,16 +276,11 @@ figures also saved as PNG and SVG under `figures/`. Neither function replaces an
 unless `force=True` is given.
 """),
     _code(r"""
-from fitkin.inference.posterior import save_samples
-from fitkin.io.parameter_file import result_to_record, write_parameter_file
-from fitkin.report import write_report
+from fitkin import save_fit
 
 out = work / "fit-xenon"
-t_star = data.temperature / lj.value("epsilon_over_k")
-record = result_to_record(lj, tables, t_star_range=(float(t_star.min()), float(t_star.max())))
-record["posterior"] = posterior.to_record(samples=save_samples(posterior, out / "samples.npz"))
-parameter_file = write_parameter_file(record, out / "parameters.json")
-report = write_report(record, out, record_path=parameter_file)
+saved = save_fit(lj, out, tables=tables, posterior=posterior)   # what `fitkin fit --sample` writes
+parameter_file, report = saved["parameters"], saved["report"]
 
 print("parameter file:", parameter_file)
 print("report:        ", report, "  (open it in any web browser)")
@@ -371,7 +366,6 @@ import pandas as pd
 
 import fitkin
 from fitkin import demo
-from fitkin.io.parameter_file import result_to_record, write_parameter_file
 from fitkin.theory.transport import TransportModel
 
 work = Path(tempfile.mkdtemp(prefix="fitkin-example-02-"))
@@ -382,9 +376,7 @@ def fit_and_save(paths, gas, folder):
     tables = fitkin.read_tables(paths)
     data = fitkin.FitData.from_tables(tables)
     result = fitkin.fit_least_squares(data, gas)
-    t_star = data.temperature / result.value("epsilon_over_k")
-    record = result_to_record(result, tables, t_star_range=(float(t_star.min()), float(t_star.max())))
-    return write_parameter_file(record, Path(folder) / "parameters.json")
+    return fitkin.save_fit(result, folder, tables=tables, report=False)["parameters"]
 
 
 # krypton: the synthetic demo tables (viscosity and conductivity)

@@ -109,3 +109,14 @@ def test_pint_quantities_and_dataframe(saved):
     df = gas.table([250.0, 1500.0], band=0.95)
     assert list(df["extrapolated"]) == [False, True]
     assert (df["viscosity lower [Pa s]"] < df["viscosity [Pa s]"]).all()
+
+
+def test_save_fit_in_one_call(tmp_path):
+    from fitkin.saving import save_fit
+    table, _ = synthetic_table()
+    res = fit_least_squares(FitData.from_tables([table]), GAS, LennardJones(), order=1, collision="neufeld")
+    paths = save_fit(res, tmp_path / "fit", tables=[table], report=False, label="lj")
+    rec = read_parameter_file(paths["parameters"])
+    assert rec["potential"]["label"] == "lj" and rec["theory"]["t_star_range"][0] > 0
+    with pytest.raises(OutputExistsError):
+        save_fit(res, tmp_path / "fit", tables=[table], report=False)

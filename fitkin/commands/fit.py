@@ -5,13 +5,11 @@ import sys
 from pathlib import Path
 
 from ..errors import FitkinError
+from ..saving import PARAMETERS_NAME, SAMPLES_NAME
 from ..summary import format_fit_summary
 from .tables import read_from_args
 
-__all__ = ["PARAMETERS_NAME", "SAMPLES_NAME", "FitOptions", "fit_files", "run_fit", "gas_from_args"]
-
-PARAMETERS_NAME = "parameters.json"
-SAMPLES_NAME = "samples.npz"
+__all__ = ["FitOptions", "fit_files", "run_fit", "gas_from_args"]
 
 
 def gas_from_args(args):
@@ -85,74 +83,64 @@ def _sampling_from_args(args):
             "progress": sys.stderr.isatty()}
 
 
-def _fit_one(data, tables, gas, choice, opts: FitOptions, out_dir: Path, force: bool, truth=None):
-    from ..inference.eucken import eucken_entry
+def _fit(data, gas, choice, opts: FitOptions):
     from ..inference.leastsq import fit_least_squares
-    from ..io.parameter_file import result_to_record
-    result = fit_least_squares(data, gas, choice.potential, free_shape=choice.free_shape, order=opts.order,
-                               collision=opts.collision, internal=opts.internal, polar=opts.polar)
-    t_star = result.data.temperature / result.value("epsilon_over_k")
-    record = result_to_record(result, tables, t_star_range=(float(t_star.min()), float(t_star.max())))
-    record["potential"]["label"] = choice.label
-    if truth:
-        record["demo_truth"] = dict(truth)
-    eucken = eucken_entry(record)
-    if eucken:
-        record["eucken"] = eucken
-    return result, record
+    return fit_least_squares(data, gas, choice.potential, free_shape=choice.free_shape, order=opts.order,
+                             collision=opts.collision, internal=opts.internal, polar=opts.polar)
 
 
-def _sample(data, gas, choice, opts, result, record, out_dir: Path, force: bool):
-    from ..inference.posterior import save_samples
+def _sample(data, gas, choice, opts, result):
     from ..inference.sampling import sample_posterior
-    post = sample_posterior(data, gas, choice.potential, free_shape=choice.free_shape, order=opts.order,
+    sampling = dict(opts.sample)
+    if sampling.get("critical") is None and gas.critical is not None and not sampling.get("priors"):
+        sampling["critical"] = gas.critical  # the gas file's critical constants give the prior
+    return sample_posterior(data, gas, choice.potential, free_shape=choice.free_shape, order=opts.order,
                             collision=opts.collision, internal=opts.internal, polar=opts.polar, start=result,
-                            **opts.sample)
-    ref = save_samples(post, out_dir / SAMPLES_NAME, force=force, relative_to=out_dir)
-    record["posterior"] = post.to_record(samples=ref)
-    return post
+                            **sampling)
 
 
 def fit_files(tables, gas, *, choices, opts: FitOptions, kinds, out_dir, force, truth=None):
-    """Fit each potential choice; write ``out_dir/parameters.json`` (and report, samples) for
-    the first and ``parameters-<name>.json`` for the others. Returns (results, paths, text)."""
+    """Fit each potential choice; save the first as ``out_dir/parameters.json`` (with samples
+    and report) and the others as ``parameters-<name>.json``. Returns (results, paths, text)."""
     from ..inference.compare import comparison_rows, format_comparison
     from ..inference.fitdata import FitData
     from ..io.atomic import check_can_write
     from ..io.parameter_file import write_parameter_file
+    from ..report import REPORT_NAME
+    from ..saving import fit_record, save_fit
     out_dir = Path(out_dir)
-    targets = [out_dir / PARAMETERS_NAME] + [out_dir / f"parameters-{_slug(c.label)}.json" for c in choices[1:]]
-    if len(set(targets)) != len(targets):
+    others = [out_dir / f"parameters-{_slug(c.label)}.json" for c in choices[1:]]
+    if len(set(others) | {out_dir / PARAMETERS_NAME}) != len(choices):
         raise FitkinError("two --potential choices would write the same file; list each shape once")
-    planned = list(targets)
-    if opts.sample:
-        planned.append(out_dir / SAMPLES_NAME)
-    if opts.report:
-        from ..report import REPORT_NAME
-        planned.append(out_dir / REPORT_NAME)
+    planned = [out_dir / PARAMETERS_NAME, *others] + ([out_dir / SAMPLES_NAME] if opts.sample else []) \
+        + ([out_dir / REPORT_NAME] if opts.report else [])
     for t in planned:
         check_can_write(t, force)  # fail before the work, not after it
     data = FitData.from_tables(tables, kinds)
-    fitted = [_fit_one(data, tables, gas, c, opts, out_dir, force, truth) for c in choices]
-    results = [r for r, _ in fitted]
-    text = format_fit_summary(results[0], targets[0], truth=truth)
+    results = [_fit(data, gas, c, opts) for c in choices]
+    extra = {"demo_truth": dict(truth)} if truth else {}
+    texts = [format_fit_summary(results[0], None, truth=truth)]
     if len(choices) > 1:
         rows = comparison_rows(list(zip(choices, results)))
-        for _, record in fitted:
-            record["comparison"] = rows
-        text += "\n\nPotential shapes compared on the same data (lowest BIC preferred):\n"
-        text += format_comparison(rows)
-        text += "\n" + "\n".join(f"  {c.label}: {t}" for c, t in zip(choices, targets))
-    if opts.sample:
-        post = _sample(data, gas, choices[0], opts, results[0], fitted[0][1], out_dir, force)
-        text += "\n\n" + "\n".join(post.summary_lines())
-    paths = [write_parameter_file(record, t, force=force) for (_, record), t in zip(fitted, targets)]
-    if opts.report:
-        from ..report import write_report
-        report = write_report(fitted[0][1], out_dir, force=force, record_path=paths[0],
-                              pressure=opts.report_pressure)
-        text += f"\nReport written to {report}"
-    return results, paths, text
+        extra["comparison"] = rows
+        texts.append("Potential shapes compared on the same data (lowest BIC preferred):\n"
+                     + format_comparison(rows))
+    post = _sample(data, gas, choices[0], opts, results[0]) if opts.sample else None
+    if post is not None:
+        texts.append("\n".join(post.summary_lines()))
+    saved = save_fit(results[0], out_dir, tables=tables, posterior=post, report=opts.report, force=force,
+                     label=choices[0].label, report_pressure=opts.report_pressure, extra=extra)
+    paths = [saved["parameters"]]
+    for c, r, t in zip(choices[1:], results[1:], others):
+        paths.append(write_parameter_file(fit_record(r, tables, label=c.label, extra=extra), t, force=force))
+    written = [f"Parameters written to {saved['parameters']}"]
+    written += [f"  {c.label}: {t}" for c, t in zip(choices[1:], others)]
+    if "samples" in saved:
+        written.append(f"Posterior samples written to {saved['samples']}")
+    if "report" in saved:
+        written.append(f"Report written to {saved['report']}")
+    texts.append("\n".join(written))
+    return results, paths, "\n\n".join(texts)
 
 
 def _kinds(text: str):

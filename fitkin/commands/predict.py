@@ -64,6 +64,8 @@ def prediction_table(gas, T, pressure, band=None, pair=None, x1=None):
         for x in (x1 if x1 is not None else ()):
             cols.append((f"mixture viscosity x({gas.gas.name}) = {x:g} [uPa s]", pair.viscosity(T, x) * 1e6))
     lo_T, hi_T = gas.temperature_range
+    if pair is not None:  # a mixture is only as measured as the less-measured of its two gases
+        lo_T, hi_T = max(lo_T, pair.second.temperature_range[0]), min(hi_T, pair.second.temperature_range[1])
     cols.append(("extrapolated", np.where((T < lo_T) | (T > hi_T), "yes", "no")))
     return cols
 

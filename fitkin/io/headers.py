@@ -238,13 +238,14 @@ def _resolve_unit(kind, unit_text, override, where, problems, *, key):
     """Unit from the header, else from ``units=``; problems for none, unreadable, or a conflict."""
     if unit_text is None or unit_text == "":
         if override is None:
-            examples = ", ".join(f"'{key} [{u}]'" for u in kind.common_units[:2])
+            name = str(where.get("column") or key).strip() or key  # the name as the user wrote it
+            examples = ", ".join(f"'{name} [{u}]'" for u in kind.common_units[:2])
             if key.startswith("u(") and kind.role == "property":
-                examples += f", '{key} [%]'"
+                examples += f", '{name} [%]'"
             problems.append(UnitError(f"the column has no unit; expected a unit of {kind.label}",
                                       **where, hint=f"write it in the header, e.g. {examples}, "
-                                      f"or supply it separately (units={{'{key}': ...}}; "
-                                      f"on the command line --unit {key}=...)"))
+                                      f"or supply it separately (on the command line --unit {name}=...; "
+                                      f"in Python units={{'{name}': ...}})"))
             return None, None
         unit_text = override
         try:

@@ -1,0 +1,76 @@
+"""Saving a fit from Python in one call: parameter file, posterior samples and report.
+
+>>> from fitkin import read_tables, Gas, FitData, fit_least_squares, save_fit   # doctest: +SKIP
+>>> tables = read_tables(["visc.csv"])                                          # doctest: +SKIP
+>>> result = fit_least_squares(FitData.from_tables(tables), Gas.from_formula("Ar"))  # doctest: +SKIP
+>>> save_fit(result, "fit-argon", tables=tables)                                # doctest: +SKIP
+{'parameters': PosixPath('fit-argon/parameters.json'), 'report': PosixPath('fit-argon/report.html')}
+
+The command ``fitkin fit`` uses the same two functions, so a fit saved from Python and one
+made on the command line hold the same entries.
+"""
+from __future__ import annotations
+
+from pathlib import Path
+
+__all__ = ["PARAMETERS_NAME", "SAMPLES_NAME", "fit_record", "save_fit"]
+
+PARAMETERS_NAME = "parameters.json"
+SAMPLES_NAME = "samples.npz"
+
+
+def fit_record(result, tables=(), *, label: str | None = None, posterior=None, samples_ref=None,
+               extra: dict | None = None) -> dict:
+    """The parameter-file record of a least-squares result (and optional posterior).
+
+    Adds what the bare :func:`fitkin.io.parameter_file.result_to_record` leaves to its
+    caller: the reduced-temperature range of the data, the potential's label, the Eucken
+    factor entry of a polyatomic gas, and the posterior section (``samples_ref`` from
+    :func:`fitkin.inference.posterior.save_samples`).
+    """
+    from .inference.eucken import eucken_entry
+    from .io.parameter_file import result_to_record
+    t_star = result.data.temperature / result.value("epsilon_over_k")
+    record = result_to_record(result, tables, t_star_range=(float(t_star.min()), float(t_star.max())))
+    if label:
+        record["potential"]["label"] = label
+    record.update(extra or {})
+    eucken = eucken_entry(record)
+    if eucken:
+        record["eucken"] = eucken
+    if posterior is not None:
+        record["posterior"] = posterior.to_record(samples=samples_ref)
+    return record
+
+
+def save_fit(result, out_dir, *, tables=(), posterior=None, report: bool = True, force: bool = False,
+             label: str | None = None, report_pressure: float = 101325.0, extra: dict | None = None) -> dict:
+    """Write ``out_dir/parameters.json`` (and ``samples.npz`` with a posterior, and
+    ``report.html`` with its figures); never replaces an existing file unless ``force``.
+
+    Returns {"parameters": path, "samples": path (if any), "report": path (if any)}.
+    """
+    from .inference.posterior import save_samples
+    from .io.atomic import check_can_write
+    from .io.parameter_file import write_parameter_file
+    out_dir = Path(out_dir)
+    planned = [out_dir / PARAMETERS_NAME]
+    if posterior is not None:
+        planned.append(out_dir / SAMPLES_NAME)
+    if report:
+        from .report import REPORT_NAME
+        planned.append(out_dir / REPORT_NAME)
+    for p in planned:
+        check_can_write(p, force)
+    paths = {}
+    ref = None
+    if posterior is not None:
+        ref = save_samples(posterior, out_dir / SAMPLES_NAME, force=force, relative_to=out_dir)
+        paths["samples"] = out_dir / SAMPLES_NAME
+    record = fit_record(result, tables, label=label, posterior=posterior, samples_ref=ref, extra=extra)
+    paths["parameters"] = write_parameter_file(record, out_dir / PARAMETERS_NAME, force=force)
+    if report:
+        from .report import write_report
+        paths["report"] = write_report(record, out_dir, force=force, record_path=paths["parameters"],
+                                       pressure=report_pressure)
+    return paths
