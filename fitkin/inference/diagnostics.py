@@ -5,7 +5,7 @@ produces them (Goodman & Weare, Comm. App. Math. Comp. Sci. 5, 65 (2010)).
 
 * Integrated autocorrelation time τ from the walker-averaged autocorrelation function with
   Sokal's automatic window M ≥ c τ(M) (Sokal, "Monte Carlo methods in statistical mechanics:
-  foundations and new algorithms", Cargèse lectures, 1997, §3); the walker average is the
+  foundations and new algorithms", in Functional Integration, Springer (1997), §3); the walker average is the
   estimator recommended for ensembles by Goodman & Weare (2010) and Foreman-Mackey et al.,
   PASP 125, 306 (2013).
 * Split-chain R̂ (Gelman & Rubin, Stat. Sci. 7, 457 (1992); split form: Gelman et al.,
