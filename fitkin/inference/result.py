@@ -67,6 +67,15 @@ class FitResult:
     def value(self, name: str) -> float:
         return self.parameters[name].value
 
+    def stderr(self, name: str) -> float:
+        """Standard uncertainty of parameter ``name`` in its report unit."""
+        return self.parameters[name].stderr
+
+    def correlation_between(self, a: str, b: str) -> float:
+        """Correlation coefficient of two varied parameters, e.g. ('sigma', 'epsilon_over_k')."""
+        names = list(self.names)
+        return float(self.correlation[names.index(a), names.index(b)])
+
     def theta(self) -> dict:
         """Parameter values keyed by name, in report units (σ in Å)."""
         return {k: p.value for k, p in self.parameters.items()}
