@@ -110,3 +110,9 @@ def test_first_order_neufeld_option_agrees():
     b = fit(data, order=1)
     assert a.value("sigma") == pytest.approx(b.value("sigma"), rel=3e-3)
     assert a.value("epsilon_over_k") == pytest.approx(b.value("epsilon_over_k"), rel=1e-2)
+
+
+def test_result_shortcuts(viscosity_fit):
+    r = viscosity_fit.correlation_between("sigma", "epsilon_over_k")
+    assert r == viscosity_fit.correlation[0, 1] and -1 < r < 0   # μ fits anticorrelate σ and ε/k (common practice)
+    assert viscosity_fit.stderr("sigma") == viscosity_fit.parameters["sigma"].stderr > 0
