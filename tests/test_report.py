@@ -255,3 +255,26 @@ def test_record_without_covariance_or_residuals(record):
     assert ctx.curves["viscosity"].source == "none"
     assert any("no usable covariance" in f.text for f in ctx.findings if f.level == "warning")
     assert "deviations" not in ctx.figures
+
+
+def test_second_virial_data_get_their_own_figure(tmp_path):
+    # B(T) of the 12-6 potential itself (invented σ, ε/k; B* from fitkin.theory.virial, whose
+    # values are checked against the Gamma-function series in tests/test_virial.py)
+    from fitkin.theory.virial import second_virial
+    from fitkin.potentials import LennardJones
+    tm = TransportModel(order=1, collision="neufeld")
+    s, e, M = 3.65e-10, 178.0, GAS.molar_mass
+    T = np.linspace(220, 870, 10)
+    B = second_virial(LennardJones(), T, s, e)
+    visc = _series("viscosity", T, tm.viscosity(T, M, s, e), 0.003, "disc-A", "v.csv")
+    virial = PropertySeries("second_virial", T, B, np.full(T.size, 1e-6), np.full(T.size, np.nan),
+                            np.full(T.size, "b-lab", dtype=object), np.arange(2, 12), "b.csv", "SI", "absolute")
+    tables = [MeasuredTable("v.csv", "a" * 64, (visc,)), MeasuredTable("b.csv", "b" * 64, (virial,))]
+    res = fit_least_squares(FitData.from_tables(tables), GAS, order=1, collision="neufeld")
+    ts = res.data.temperature / res.value("epsilon_over_k")
+    rec = result_to_record(res, tables, t_star_range=(float(ts.min()), float(ts.max())))
+    path = write_report(rec, tmp_path)
+    page = _parse(path.read_text(encoding="utf-8"))
+    assert "fig-fit_second_virial" in page.ids or (tmp_path / "figures" / "fit_second_virial.png").is_file()
+    assert (tmp_path / "figures" / "fit_second_virial.svg").is_file()
+    assert "cm³/mol" in page.all_text

@@ -14,6 +14,7 @@ from matplotlib.lines import Line2D
 from matplotlib.patches import Patch
 from scipy import stats
 
+from ..measurements import SIGNED_KINDS
 from . import style as st
 from .bands import REPORT_SEED, Curve, RecordModel
 from .comparison import (EUCKEN_CHAPMAN_ENSKOG, EUCKEN_ELEMENTARY, ElementaryComparison)
@@ -95,6 +96,9 @@ def _data(ax, record, kind, sources, scale, relative_to=None):
         if relative_to == "model":
             ref = np.array([r["model_SI"] for r in mine])
             y, u = 100 * (y - ref) / ref, 100 * u / ref
+        elif relative_to == "model_absolute":  # signed kinds (B): measured − fit in display units
+            ref = np.array([r["model_SI"] for r in mine])
+            y, u = (y - ref) * scale, u * scale
         else:
             y, u = y * scale, u * scale
         sty = st.source_style(i)
@@ -125,16 +129,21 @@ def fit_figure(model: RecordModel, kind: str, curve: Curve) -> Figure:
     handles = _data(top, record, kind, _sources(record), scale)
     top.set_ylabel(f"{symbol} [{unit}]")
     band = f"{100 * curve.probability:.0f} % band ({curve.source})" if curve.source != "none" else "no band"
-    handles += [Line2D([], [], color=st.FIT, lw=1.6, label="Chapman–Enskog fit"),
+    fit_label = "B(T) of the fitted potential" if kind == "second_virial" else "Chapman–Enskog fit"
+    handles += [Line2D([], [], color=st.FIT, lw=1.6, label=fit_label),
                 Patch(color=st.BAND, label=band),
                 Patch(facecolor=st.EXTRAPOLATION, edgecolor=st.MUTED, lw=0.5, label="not measured (extrapolation)")]
     top.legend(handles=handles, fontsize=8, frameon=False, loc="upper left", ncol=2)
+    signed = kind in SIGNED_KINDS  # B changes sign: its band is shown in its unit, not in %
     with np.errstate(invalid="ignore", divide="ignore"):
-        rel_lo = 100 * (curve.lower / curve.median - 1)
-        rel_hi = 100 * (curve.upper / curve.median - 1)
+        if signed:
+            rel_lo, rel_hi = (curve.lower - curve.median) * scale, (curve.upper - curve.median) * scale
+        else:
+            rel_lo = 100 * (curve.lower / curve.median - 1)
+            rel_hi = 100 * (curve.upper / curve.median - 1)
     bottom.fill_between(T, rel_lo, rel_hi, color=st.BAND, alpha=0.8, lw=0)
     bottom.axhline(0, color=st.FIT, lw=1.0)
-    bottom.set_ylabel(f"{100 * curve.probability:.0f} % band [%]", fontsize=8.5)
+    bottom.set_ylabel(f"{100 * curve.probability:.0f} % band [{unit if signed else '%'}]", fontsize=8.5)
     bottom.set_xlabel("T [K]")
     if not measured:
         top.set_title(f"{kind} was not measured: the curve is a prediction from the fit", fontsize=9,
@@ -154,13 +163,19 @@ def deviation_figure(record: dict, curves: dict) -> Figure:
         c = curves.get(kind)
         if c is not None and c.source != "none":
             with np.errstate(invalid="ignore", divide="ignore"):
-                ax.fill_between(c.temperature, 100 * (c.lower / c.median - 1), 100 * (c.upper / c.median - 1),
-                                color=st.BAND, alpha=0.6, lw=0, zorder=1)
+                if kind in SIGNED_KINDS:
+                    s = st.DISPLAY[kind][2]
+                    lo, hi = (c.lower - c.median) * s, (c.upper - c.median) * s
+                else:
+                    lo, hi = 100 * (c.lower / c.median - 1), 100 * (c.upper / c.median - 1)
+                ax.fill_between(c.temperature, lo, hi, color=st.BAND, alpha=0.6, lw=0, zorder=1)
         ax.axhline(0, color=st.FIT, lw=1.0, zorder=2)
-        for h in _data(ax, record, kind, sources, 1.0, relative_to="model"):
+        symbol, unit, scale = st.DISPLAY[kind]
+        signed = kind in SIGNED_KINDS
+        for h in _data(ax, record, kind, sources, scale, relative_to="model_absolute" if signed else "model"):
             handles.setdefault(h.get_label().rsplit(" (", 1)[0], h)
-        symbol = st.DISPLAY[kind][0]
-        ax.set_ylabel(f"{symbol}: 100 (meas. − fit)/fit [%]", fontsize=8.5)
+        ax.set_ylabel(f"{symbol}: meas. − fit [{unit}]" if signed else f"{symbol}: 100 (meas. − fit)/fit [%]",
+                      fontsize=8.5)
     lo, hi = measured_range(record)
     pad = 0.04 * (hi - lo) + 5.0
     axes[-1].set_xlim(lo - pad, hi + pad)

@@ -44,7 +44,7 @@ def _prepare(record: dict, record_path=None, pressure: float = 101325.0) -> Repo
     model = RecordModel(record, record_path)
     ctx = ReportContext(record=record, record_path=record_path, pressure=pressure, model=model)
     T = fg.property_grid(model)
-    ctx.curves = {k: model.curve(k, T) for k in st.DISPLAY}
+    ctx.curves = {k: model.curve(k, T) for k in st.shown_kinds(record)}
     ctx.comparison = elementary_comparison(record, pressure=pressure, model=model)
     ctx.findings = report_findings(record, model)
     unplotted = sorted({r.get("property") for r in record.get("residuals") or []} - set(st.DISPLAY))
@@ -80,7 +80,8 @@ def _figures(ctx: ReportContext) -> None:
                        f"extrapolated. Below: the band's half-widths relative to the fit.")
     if any(r.get("property") in st.DISPLAY for r in rec.get("residuals") or []):
         ctx.add_figure("deviations", fg.deviation_figure(rec, ctx.curves),
-                       f"Deviations 100 (measured − fit)/fit against temperature, one marker per source ({bars}); "
+                       f"Deviations 100 (measured − fit)/fit against temperature (for B: measured − fit in cm³/mol), "
+                       f"one marker per source ({bars}); "
                        "shaded: the fit's 95 % band.")
     sampled = bool(model.samples)
     if not rec["parameters"]["epsilon_over_k"].get("varied", True):

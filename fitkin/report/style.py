@@ -6,7 +6,7 @@ marker shape as well, so the figures stay readable in grey print.
 from __future__ import annotations
 
 __all__ = ["INK", "MUTED", "FIT", "BAND", "EXTRAPOLATION", "SOURCE_COLOURS", "SOURCE_MARKERS",
-           "DISPLAY", "FIGURE_WIDTH", "source_style", "style_axes", "PAGE_CSS"]
+           "DISPLAY", "ALWAYS_SHOWN", "shown_kinds", "FIGURE_WIDTH", "source_style", "style_axes", "PAGE_CSS"]
 
 INK = "#1d2733"          # text, axes
 MUTED = "#6b7785"        # secondary text, reference lines
@@ -21,7 +21,17 @@ FIGURE_WIDTH = 7.2  # inches: fits an A4/Letter text column when printed
 DISPLAY = {
     "viscosity": ("μ", "µPa·s", 1e6),
     "conductivity": ("k", "mW/(m·K)", 1e3),
+    "second_virial": ("B", "cm³/mol", 1e6),
 }
+#: Properties drawn in every report (as predictions where not measured); the others of
+#: :data:`DISPLAY` only when measured.
+ALWAYS_SHOWN = ("viscosity", "conductivity")
+
+
+def shown_kinds(record: dict) -> list[str]:
+    """The properties the report draws for ``record``, in :data:`DISPLAY` order."""
+    measured = {r.get("property") for r in record.get("residuals") or []}
+    return [k for k in DISPLAY if k in ALWAYS_SHOWN or k in measured]
 
 
 def source_style(index: int) -> dict:
