@@ -10,7 +10,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 __all__ = ["PROPERTY_KINDS", "SI_UNITS", "SIGNED_KINDS", "PRESSURE_KINDS", "PropertySeries",
-           "MeasuredTable", "combine_series"]
+           "MeasuredTable"]
 
 #: Property kinds fitkin can read and fit, with their SI units.
 SI_UNITS = {
@@ -99,38 +99,3 @@ class MeasuredTable:
             if s.kind == kind:
                 return s
         return None
-
-
-def combine_series(tables: list[MeasuredTable] | tuple[MeasuredTable, ...], kind: str) -> PropertySeries | None:
-    """Concatenate the series of one kind from several tables (None if no table has it).
-
-    ``file`` of the result is the files joined by ', '; ``unit`` and ``uncertainty_kind``
-    are joined likewise when they differ.
-    """
-    parts = [t.get(kind) for t in tables]
-    parts = [p for p in parts if p is not None and len(p)]
-    if not parts:
-        return None
-    if len(parts) == 1:
-        return parts[0]
-
-    def joined(attr):
-        seen = []
-        for p in parts:
-            v = getattr(p, attr)
-            if v not in seen:
-                seen.append(v)
-        return ", ".join(seen)
-
-    return PropertySeries(
-        kind=kind,
-        temperature=np.concatenate([p.temperature for p in parts]),
-        value=np.concatenate([p.value for p in parts]),
-        uncertainty=np.concatenate([p.uncertainty for p in parts]),
-        pressure=np.concatenate([p.pressure for p in parts]),
-        source=np.concatenate([np.asarray(p.source, dtype=object) for p in parts]),
-        rows=np.concatenate([p.rows for p in parts]),
-        file=joined("file"),
-        unit=joined("unit"),
-        uncertainty_kind=joined("uncertainty_kind"),
-    )

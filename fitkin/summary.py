@@ -3,6 +3,8 @@ from __future__ import annotations
 
 import numpy as np
 
+from .errors import FitkinError
+
 from .measurements import SIGNED_KINDS
 
 __all__ = ["format_fit_summary", "format_estimate"]
@@ -16,7 +18,7 @@ def _potential_text(settings: dict) -> str:
     try:
         text = potential_from_record({"name": settings.get("potential"),
                                       "shape_parameters": settings.get("shape_parameters") or {}}).describe()
-    except Exception:  # a shape fitkin cannot rebuild (tabulated): its name is enough here
+    except FitkinError:  # a shape fitkin cannot rebuild (tabulated): its name is enough here
         text = str(settings.get("potential"))
     free = settings.get("free_shape") or []
     return f"{text} potential" + (f" ({', '.join(free)} fitted)" if free else "")

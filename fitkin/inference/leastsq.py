@@ -12,7 +12,7 @@ import lmfit
 import numpy as np
 from scipy import stats
 
-from ..errors import FitError, FitkinError, OutOfRangeError
+from ..errors import FitError, OutOfRangeError
 from ..species import Gas
 from ..theory.transport import TransportModel
 from ..theory.quantum import QUANTUM_WARNING_RATIO, thermal_wavelength_ratio
@@ -138,8 +138,6 @@ def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(),
     try:
         out = lmfit.minimize(_residual_function(model, data), params, method="least_squares",
                              scale_covar=not data.weighted, x_scale="jac")
-    except FitkinError:
-        raise
     except (ValueError, FloatingPointError) as exc:  # numerical failure inside the optimiser
         raise FitError(f"the least-squares fit failed numerically: {exc}") from exc
 

@@ -6,7 +6,7 @@ the higher-approximation corrections meet.
 """
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 from functools import cached_property
 
 import numpy as np
@@ -36,7 +36,6 @@ class TransportModel:
     potential: object = None
     order: int = 3
     collision: str = "computed"
-    _cache: dict = field(default_factory=dict, init=False, repr=False, compare=False, hash=False)
 
     def __post_init__(self):
         if self.collision not in COLLISION_SOURCES:
