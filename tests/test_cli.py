@@ -62,7 +62,7 @@ def test_fit_predict_end_to_end(tmp_path, capsys):
     code, out, err = run(capsys, "fit", str(f), "--formula", "Ar", "--out", str(out_dir))
     assert code == 0, err
     assert "σ" in out and "ε/k" in out
-    rec = json.loads((out_dir / "parameters.json").read_text())
+    rec = json.loads((out_dir / "parameters.json").read_text(encoding="utf-8"))
     assert 3.28 < rec["parameters"]["sigma"]["value"] < 3.45   # published spread, see test_fit_argon
     assert 115 < rec["parameters"]["epsilon_over_k"]["value"] < 160
 
@@ -70,7 +70,7 @@ def test_fit_predict_end_to_end(tmp_path, capsys):
     code, out, err = run(capsys, "predict", str(out_dir / "parameters.json"), "--temperatures", "150:1000:50",
                          "--out", str(table))
     assert code == 0, err
-    lines = [line for line in table.read_text().splitlines() if not line.startswith("#")]
+    lines = [line for line in table.read_text(encoding="utf-8").splitlines() if not line.startswith("#")]
     header, rows = lines[0].split(","), [r.split(",") for r in lines[1:]]
     T = np.array([float(r[0]) for r in rows])
     mu = np.array([float(r[header.index("viscosity [uPa s]")]) for r in rows]) * 1e-6
@@ -89,10 +89,10 @@ def test_fit_refuses_to_overwrite(tmp_path, capsys):
     f = argon_viscosity_celsius(tmp_path / "ar.csv", n=8)
     out_dir = tmp_path / "fit"
     assert run(capsys, "fit", str(f), "--formula", "Ar", "--out", str(out_dir), "--order", "1")[0] == 0
-    before = (out_dir / "parameters.json").read_text()
+    before = (out_dir / "parameters.json").read_text(encoding="utf-8")
     code, _, err = run(capsys, "fit", str(f), "--formula", "Ar", "--out", str(out_dir))
     assert code == 2 and "--force" in err
-    assert (out_dir / "parameters.json").read_text() == before
+    assert (out_dir / "parameters.json").read_text(encoding="utf-8") == before
 
 
 @pytest.mark.parametrize("args, fragment", [
@@ -110,6 +110,6 @@ def test_predict_bad_inputs(tmp_path, capsys):
     code, _, err = run(capsys, "predict", str(tmp_path / "missing.json"), "-T", "300")
     assert code == 2 and "no such parameter file" in err
     p = tmp_path / "p.json"
-    p.write_text("{}")
+    p.write_text("{}", encoding="utf-8")
     code, _, err = run(capsys, "predict", str(p), "-T", "300")
     assert code == 2 and "not a fitkin parameter file" in err

@@ -39,7 +39,7 @@ def sampled_fit(tmp_path_factory):
 
 
 def test_sampled_fit_writes_samples_report_and_posterior(sampled_fit):
-    rec = json.loads((sampled_fit / "parameters.json").read_text())
+    rec = json.loads((sampled_fit / "parameters.json").read_text(encoding="utf-8"))
     post = rec["posterior"]
     assert post["samples"]["file"] == "samples.npz" and (sampled_fit / "samples.npz").is_file()
     assert (sampled_fit / "report.html").is_file()
@@ -74,7 +74,7 @@ def test_gas_file_fit_of_co2_conductivity(tmp_path, capsys):
     code, out, err = run(capsys, "fit", f, "--gas", SAMPLE / "example_gas_co2.toml", "--out", tmp_path / "fit",
                          "--fit-internal", "all", "--conductivity-model", "mason_monchick", "--no-report")
     assert code == 0, err
-    rec = json.loads((tmp_path / "fit" / "parameters.json").read_text())
+    rec = json.loads((tmp_path / "fit" / "parameters.json").read_text(encoding="utf-8"))
     assert rec["theory"]["internal_energy"]["model"] == "mason_monchick"
     assert "z_rot_inf" in rec["parameters"]
     k_dev = [r["deviation_percent"] for r in rec["residuals"] if r["property"] == "conductivity"]

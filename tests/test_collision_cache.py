@@ -127,7 +127,7 @@ def test_distinct_shapes_distinct_files(cache_folder, counted_build):
 
 def test_unwritable_cache_warns_but_works(tmp_path, monkeypatch, counted_build):
     blocker = tmp_path / "file-not-folder"
-    blocker.write_text("x")
+    blocker.write_text("x", encoding="utf-8")
     monkeypatch.setenv("FITKIN_CACHE_DIR", str(blocker))
     clear_memory_cache()
     with pytest.warns(RuntimeWarning, match="not written"):

@@ -18,7 +18,7 @@ def test_demo_recovers_the_generating_parameters(tmp_path, capsys):
     assert main(["demo", "--out", str(tmp_path / "d")]) == 0
     out = capsys.readouterr().out
     assert "SYNTHETIC" in out and "generated from" in out
-    rec = json.loads((tmp_path / "d" / "parameters.json").read_text())
+    rec = json.loads((tmp_path / "d" / "parameters.json").read_text(encoding="utf-8"))
     for name, truth in demo.TRUE_PARAMETERS.items():
         p = rec["parameters"][name]
         # the noise is Gaussian with the stated u: the truth lies within 4 standard errors

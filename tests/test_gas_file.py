@@ -90,7 +90,7 @@ wavenumbers = [3657, 1595, 3756]
     assert gas.molar_mass == pytest.approx(0.018015)
     assert gas.dipole_moment == pytest.approx(1.85 * DEBYE) and gas.is_polar
     assert gas.heat_capacity.atoms == 3
-    with_unit = write(tmp_path, p.read_text().replace("dipole_moment = 1.85", 'dipole_moment = "6.1709e-30 C m"'), "u.toml")
+    with_unit = write(tmp_path, p.read_text(encoding="utf-8").replace("dipole_moment = 1.85", 'dipole_moment = "6.1709e-30 C m"'), "u.toml")
     assert read_gas_file(with_unit).dipole_moment_debye == pytest.approx(1.85, rel=1e-4)
 
 

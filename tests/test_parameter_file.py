@@ -52,7 +52,7 @@ def test_round_trip_predictions_equal_the_fit(saved):
 
 def test_file_is_self_describing(saved):
     _, path, _ = saved
-    rec = json.loads(path.read_text())
+    rec = json.loads(path.read_text(encoding="utf-8"))
     assert rec["schema"] == "fitkin.parameters" and rec["schema_version"] == SCHEMA_VERSION
     assert rec["parameters"]["sigma"]["unit"] == "angstrom"
     assert rec["parameters"]["epsilon_over_k"]["unit"] == "K"
@@ -71,10 +71,10 @@ def test_band_brackets_the_central_value(saved):
 
 def test_newer_schema_is_refused(saved, tmp_path):
     _, path, _ = saved
-    rec = json.loads(path.read_text())
+    rec = json.loads(path.read_text(encoding="utf-8"))
     rec["schema_version"] = SCHEMA_VERSION + 1
     p = tmp_path / "new.json"
-    p.write_text(json.dumps(rec))
+    p.write_text(json.dumps(rec), encoding="utf-8")
     with pytest.raises(ParameterFileError, match="newer"):
         read_parameter_file(p)
 
@@ -85,17 +85,17 @@ def test_newer_schema_is_refused(saved, tmp_path):
 ])
 def test_damaged_files(tmp_path, content, fragment):
     p = tmp_path / "x.json"
-    p.write_text(content)
+    p.write_text(content, encoding="utf-8")
     with pytest.raises(ParameterFileError, match=fragment):
         read_parameter_file(p)
 
 
 def test_never_overwrites_without_force(saved):
     _, path, _ = saved
-    before = path.read_text()
+    before = path.read_text(encoding="utf-8")
     with pytest.raises(OutputExistsError, match="--force"):
         write_parameter_file({"x": 1}, path)
-    assert path.read_text() == before
+    assert path.read_text(encoding="utf-8") == before
 
 
 def test_pint_quantities_and_dataframe(saved):

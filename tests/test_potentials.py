@@ -124,7 +124,7 @@ def test_tabulated_from_file(tmp_path):
     r, u = _lj_table()
     path = tmp_path / "pot.csv"
     lines = ["# invented test table", "r [nm], U [K]"] + [f"{a / 10:.10g}, {b:.10g}" for a, b in zip(r, u)]
-    path.write_text("\n".join(lines) + "\n")
+    path.write_text("\n".join(lines) + "\n", encoding="utf-8")
     t = Tabulated.from_file(path)
     assert t.sigma == pytest.approx(3.4e-10, rel=1e-4)
     assert t.epsilon_over_k == pytest.approx(120.0, rel=1e-3)
@@ -132,15 +132,15 @@ def test_tabulated_from_file(tmp_path):
     R = 8.314462618e-3
     for header, sep in [("r (Å)\tU (kJ/mol)", "\t"), ("r [Å] U [kJ/mol]", " "), ("r [Å];U [kJ/mol]", ";")]:
         p2 = tmp_path / "pot2.txt"
-        p2.write_text("\n".join([header] + [f"{a:.10g}{sep}{b * R:.10g}" for a, b in zip(r, u)]) + "\n")
+        p2.write_text("\n".join([header] + [f"{a:.10g}{sep}{b * R:.10g}" for a, b in zip(r, u)]) + "\n", encoding="utf-8")
         t2 = Tabulated.from_file(p2)
         assert t2.epsilon_over_k == pytest.approx(t.epsilon_over_k, rel=1e-8)
     from fitkin.errors import InputError
     bad = tmp_path / "bad.csv"
-    bad.write_text("r, U\n1, 2\n")
+    bad.write_text("r, U\n1, 2\n", encoding="utf-8")
     with pytest.raises(InputError, match="unit"):
         Tabulated.from_file(bad)
-    bad.write_text("r [Å], U [K]\n1.0, 2.0, 3.0\n")
+    bad.write_text("r [Å], U [K]\n1.0, 2.0, 3.0\n", encoding="utf-8")
     with pytest.raises(InputError, match="row 2"):
         Tabulated.from_file(bad)
     with pytest.raises(InputError):

@@ -70,9 +70,9 @@ class Mie(Potential):
 
     Examples
     --------
-    >>> Mie(12, 6).prefactor
+    >>> round(Mie(12, 6).prefactor, 12)
     4.0
-    >>> float(Mie(12, 6).reduced_energy(2 ** (1 / 6)))
+    >>> round(float(Mie(12, 6).reduced_energy(2 ** (1 / 6))), 12)
     -1.0
     """
 
