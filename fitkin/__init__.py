@@ -8,6 +8,8 @@ The main entry points, importable from the top level:
 * :class:`TransportModel` — Chapman–Enskog μ, k, D for a potential shape.
 * :func:`sample_posterior` — the posterior of the same parameters (emcee).
 * :func:`save_fit` — parameter file, samples and report in one call.
+* :func:`run_fit_job` — the whole ``fitkin fit`` workflow (several shapes, comparison,
+  sampling, saving) in one call; returns a :class:`FitJobResult`.
 * :func:`load_parameters` — a saved fit, for reuse downstream.
 """
 from importlib import import_module
@@ -31,6 +33,9 @@ _LAZY = {
     "sample_posterior": "fitkin.inference.sampling",
     "compare_potentials": "fitkin.inference.compare",
     "FittedGas": "fitkin.fitted",
+    "run_fit_job": "fitkin.workflow",
+    "FitOptions": "fitkin.workflow",
+    "FitJobResult": "fitkin.workflow",
 }
 
 __all__ = ["__version__", *_LAZY]

@@ -1,14 +1,23 @@
 """What each ``fitkin`` sub-command does, on already-parsed arguments.
 
 Kept apart from :mod:`fitkin.cli` (argument grammar) so that each command is a short,
-testable function; the library does the work, these functions only connect and print.
+testable function; the library does the work (the fit workflow is
+:func:`fitkin.workflow.run_fit_job`), these functions only connect and print.
 One module per command family: :mod:`.tables` (check), :mod:`.fit`, :mod:`.predict`,
-:mod:`.report`, :mod:`.demo`.
+:mod:`.report`, :mod:`.demo`. They are imported on first use (PEP 562), so a command loads
+only what it needs: the one place where fitkin imports lazily.
 """
-from .demo import run_demo
-from .fit import fit_files, run_fit
-from .predict import parse_temperatures, run_predict
-from .report import run_report
-from .tables import run_check
+from importlib import import_module
 
-__all__ = ["run_check", "run_fit", "run_predict", "run_report", "run_demo", "parse_temperatures", "fit_files"]
+_COMMANDS = {"run_check": ".tables", "run_fit": ".fit", "run_predict": ".predict", "run_report": ".report",
+             "run_demo": ".demo", "parse_temperatures": ".predict"}
+
+__all__ = list(_COMMANDS)
+
+
+def __getattr__(name):
+    if name in _COMMANDS:
+        value = getattr(import_module(_COMMANDS[name], __name__), name)
+        globals()[name] = value
+        return value
+    raise AttributeError(f"module 'fitkin.commands' has no attribute {name!r}")

@@ -3,7 +3,10 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from .fit import FitOptions, _choices, fit_files
+from .. import demo
+from ..io import read_tables
+from ..species import Gas
+from ..workflow import FitOptions, run_fit_job
 
 __all__ = ["run_demo"]
 
@@ -12,9 +15,6 @@ DEMO_SAMPLING = {"max_steps": 20000, "progress": False}
 
 
 def run_demo(args, out) -> int:
-    from .. import demo
-    from ..io import read_tables
-    from ..species import Gas
     folder = Path(args.out)
     print("fitkin demo: SYNTHETIC data of a fictional krypton experiment (see fitkin/demo.py)", file=out)
     paths = demo.write_demo_tables(folder / "data", force=args.force)
@@ -22,10 +22,11 @@ def run_demo(args, out) -> int:
         print(f"  wrote {p}", file=out)
     tables = read_tables(paths)
     gas = Gas.from_formula(demo.DEMO_GAS["formula"], name=demo.DEMO_GAS["name"])
-    _, _, text = fit_files(tables, gas, choices=_choices("lj"), opts=FitOptions(order=3, sample=DEMO_SAMPLING | {"seed": demo.DEMO_SEED}), kinds=None,
-                           out_dir=folder, force=args.force, truth=demo.TRUE_PARAMETERS)
+    job = run_fit_job(tables, gas, potentials="lj",
+                      options=FitOptions(order=3, sample=DEMO_SAMPLING | {"seed": demo.DEMO_SEED}),
+                      out_dir=folder, force=args.force, truth=demo.TRUE_PARAMETERS)
     print("", file=out)
-    print(text, file=out)
+    print(job.summary, file=out)
     print("\nThe 'generated from' column is the truth behind the synthetic data; deviations of a few "
           "standard errors or less mean the fit recovered it.", file=out)
     print(f"Open {folder / 'report.html'} in a browser to judge the fit.", file=out)
