@@ -84,7 +84,8 @@ def default_internal_model(gas: Gas, fits_conductivity: bool) -> InternalEnergyT
 
     None (translational Chapman–Enskog only) for a monatomic gas; Mason–Monchick (1962) when
     the heat capacity splits into rotation and vibration; internal energy diffusing like mass
-    (f_int = ρD/μ) for a tabulated c_p⁰ without geometry. A polyatomic gas without heat
+    (f_int = ρD/μ) for a tabulated c_p⁰ without geometry. Without conductivity data
+    (``fits_conductivity`` false) no internal parameter is free: nothing would determine it. A polyatomic gas without heat
     capacity cannot have its conductivity fitted: a FitError says what to add.
     """
     if is_monatomic(gas):
@@ -96,8 +97,10 @@ def default_internal_model(gas: Gas, fits_conductivity: bool) -> InternalEnergyT
                            "file with a [heat_capacity] table or [molecule] data (--gas FILE, see "
                            "docs/gas-file.md), or fit viscosity only (--property viscosity)")
         return None
+    # without conductivity data nothing constrains an internal-transport parameter: none is free
+    # (the model is kept, with its defaults, so the saved fit can still predict k)
     if gas.heat_capacity.has_rotational_split:
-        return InternalEnergyTransport("mason_monchick")
+        return InternalEnergyTransport("mason_monchick", free=None if fits_conductivity else ())
     return InternalEnergyTransport("eucken_diffusion", free=())
 
 
