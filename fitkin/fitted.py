@@ -164,7 +164,7 @@ class FittedGas:
         return self.predict("viscosity", T, band=band)
 
     def conductivity(self, T, band: float | None = None):
-        """Monatomic (translational) thermal conductivity k(T) in W/(m K)."""
+        """Thermal conductivity k(T) in W/(m K): translational plus the fitted internal-energy part."""
         return self.predict("conductivity", T, band=band)
 
     def self_diffusion(self, T, p=101325.0, band: float | None = None):

@@ -11,6 +11,7 @@ import pytest
 
 from fitkin.cli import main
 from fitkin.fitted import load_parameters
+from fitkin.theory.internal import InternalEnergyTransport
 
 CP = pytest.importorskip("CoolProp.CoolProp")
 
@@ -58,3 +59,29 @@ def test_viscosity_only_fit_of_a_polyatomic_gas_keeps_its_standard_errors(tmp_pa
     assert record["theory"]["internal_energy"]["fitted"] == []
     # the model stays, so the saved fit still predicts k (with the model's defaults)
     assert load_parameters(tmp_path / "fit" / "parameters.json").has_conductivity_model
+
+
+def test_parameter_file_holds_the_fitted_internal_values_and_reloads_them(tmp_path, capsys):
+    # Issue 9 §3: theory.internal_energy.values must hold what was fitted, not the defaults,
+    # and --fit-internal works without repeating the model auto chose.
+    gas, visc, cond = write_co2(tmp_path)
+    out_dir = tmp_path / "joint"
+    code, out, err = run(capsys, "fit", visc, cond, "--gas", gas, "--out", out_dir, "--no-report",
+                         "--fit-internal", "z_rot_inf,vibrational_diffusion_factor")
+    assert code == 0, err
+    record = json.loads((out_dir / "parameters.json").read_text(encoding="utf-8"))
+    internal = record["theory"]["internal_energy"]
+    assert internal["model"] == "mason_monchick"
+    assert internal["fitted"] == ["z_rot_inf", "vibrational_diffusion_factor"]
+    for name in internal["fitted"]:
+        assert internal["values"][name] == pytest.approx(record["parameters"][name]["value"], rel=1e-12)
+    assert internal["values"]["z_rot_inf"] != 20.0  # the default is not what the data give
+    # round trip: the reloaded fit predicts the conductivity the fit reported
+    fitted = load_parameters(out_dir / "parameters.json")
+    rows = [r for r in record["residuals"] if r["property"] == "conductivity"]
+    T = np.array([r["T_K"] for r in rows])
+    k_fit = np.array([r["model_SI"] for r in rows])
+    assert fitted.conductivity(T) == pytest.approx(k_fit, rel=1e-9)
+    # a program that builds the model from "values" alone (not from the parameters) agrees too
+    rebuilt = InternalEnergyTransport(internal["model"], free=(), fixed=internal["values"])
+    assert rebuilt.defaults == internal["values"]

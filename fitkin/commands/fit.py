@@ -7,6 +7,7 @@ from dataclasses import replace
 from ..errors import FitkinError
 from ..inference.corresponding_states import parse_critical_constants
 from ..inference.likelihood import parse_calibration
+from ..inference.model import AutomaticInternalModel
 from ..inference.priors import parse_prior_assignment
 from ..measurements import PROPERTY_KINDS
 from ..species import Gas
@@ -33,8 +34,10 @@ def _internal_from_args(args):
     name = args.conductivity_model
     if name == "auto" and args.fit_internal is None:
         return "auto"
-    if name == "auto":
-        raise FitkinError("--fit-internal needs --conductivity-model (e.g. mason_monchick)")
+    if name == "auto":  # the model fitkin picks for the gas, with these parameters free
+        spec = args.fit_internal.strip()
+        return AutomaticInternalModel(() if spec in ("", "none") else
+                                      ("all" if spec == "all" else tuple(x.strip() for x in spec.split(",") if x.strip())))
     if name not in INTERNAL_MODELS:
         raise FitkinError(f"unknown --conductivity-model '{name}'; choose from {', '.join(INTERNAL_MODELS)}")
     if args.fit_internal is None:

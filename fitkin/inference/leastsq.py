@@ -17,8 +17,7 @@ from ..species import Gas
 from ..theory.transport import TransportModel
 from ..theory.quantum import QUANTUM_WARNING_RATIO, thermal_wavelength_ratio
 from .fitdata import FitData
-from ..theory.internal import InternalEnergyTransport
-from .model import ANGSTROM, ForwardModel, default_internal_model
+from .model import ANGSTROM, ForwardModel, resolve_internal_model
 from .result import PARAMETER_UNITS, FitResult, ParameterEstimate
 from .start import epsilon_bounds, starting_values
 
@@ -35,16 +34,9 @@ NARROW_RANGE_RATIO = 1.5
 
 
 def resolve_internal(internal, gas: Gas, data: FitData):
-    """The internal-energy model to fit with: see :func:`fit_least_squares`."""
-    if isinstance(internal, str):
-        if internal == "auto":
-            return default_internal_model(gas, "conductivity" in data.kinds)
-        internal = InternalEnergyTransport(internal)
-    if internal is not None and internal.name != "monatomic" and "conductivity" not in data.kinds \
-            and internal.parameter_names:
-        # nothing constrains the internal-transport parameters without conductivity data
-        internal = InternalEnergyTransport(internal.name, free=(), fixed=internal.fixed)
-    return internal
+    """The internal-energy model to fit with: see :func:`fit_least_squares` and
+    :func:`~fitkin.inference.model.resolve_internal_model`."""
+    return resolve_internal_model(internal, gas, data.kinds)
 
 
 def _residual_function(model: ForwardModel, data: FitData):
@@ -155,7 +147,7 @@ def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(),
     chi2 = float(np.sum(((prediction - data.value) / data.sigma_y) ** 2))
     result = FitResult(
         gas=gas,
-        model_settings={**model.transport(theta).describe(), **model.describe(), "free_shape": list(model.free_shape),
+        model_settings={**model.transport(theta).describe(), **model.describe(theta), "free_shape": list(model.free_shape),
                         "weighting": "stated uncertainties" if data.weighted else "equal relative weights"},
         parameters=estimates, names=names, covariance=cov, chi2=chi2, dof=len(data) - len(names),
         weighted=data.weighted, success=bool(out.success), message=str(out.message),

@@ -27,6 +27,7 @@ from ..theory.virial import first_quantum_term, reduced_second_virial, virial_re
 from .fitdata import FitData
 
 __all__ = ["ForwardModel", "ANGSTROM", "with_shape", "default_internal_model", "is_monatomic",
+           "AutomaticInternalModel", "resolve_internal_model",
            "second_virial_coefficient", "INVERSE_SIGMA_SQUARED_KINDS", "SIGMA_CUBED_KINDS"]
 
 ANGSTROM = 1e-10
@@ -102,6 +103,43 @@ def default_internal_model(gas: Gas, fits_conductivity: bool) -> InternalEnergyT
     if gas.heat_capacity.has_rotational_split:
         return InternalEnergyTransport("mason_monchick", free=None if fits_conductivity else ())
     return InternalEnergyTransport("eucken_diffusion", free=())
+
+
+@dataclass(frozen=True)
+class AutomaticInternalModel:
+    """The conductivity model fitkin picks for the gas (:func:`default_internal_model`), with
+    the named parameters free instead of its default free set (``free="all"``: every one).
+
+    This is what ``--fit-internal NAMES`` means without ``--conductivity-model``.
+    """
+
+    free: tuple | str = ()
+
+
+def resolve_internal_model(internal, gas: Gas, kinds) -> InternalEnergyTransport | None:
+    """The internal-energy model a fit of the property ``kinds`` uses.
+
+    ``internal`` is "auto", an :class:`AutomaticInternalModel`, a model name, a model or None.
+    Without conductivity among ``kinds`` no internal parameter is free (nothing in μ, D or B
+    determines one); the model is kept with its fixed values so that the fit can predict k.
+    """
+    fits_k = "conductivity" in tuple(kinds)
+    if isinstance(internal, str) and internal == "auto":
+        return default_internal_model(gas, fits_k)
+    if isinstance(internal, AutomaticInternalModel):
+        chosen = default_internal_model(gas, fits_k)
+        if chosen is None:
+            if internal.free:
+                raise FitError(f"'{gas.name}' has no internal-energy conductivity model to fit (a monatomic gas, "
+                               "or no heat capacity is known): leave out --fit-internal")
+            return None
+        free = chosen.all_parameter_names if internal.free == "all" else tuple(internal.free)
+        internal = InternalEnergyTransport(chosen.name, free=free, fixed=chosen.fixed)
+    elif isinstance(internal, str):
+        internal = InternalEnergyTransport(internal)
+    if internal is not None and not fits_k and internal.parameter_names:
+        internal = InternalEnergyTransport(internal.name, free=(), fixed=internal.fixed)
+    return internal
 
 
 @dataclass
@@ -209,7 +247,9 @@ class ForwardModel:
         theta = {"sigma": 1.0, "epsilon_over_k": theta_eps, **theta_shape}
         return self.predict(theta, data)
 
-    def describe(self) -> dict:
-        """Settings for the record: internal-energy model and polar treatment."""
-        return {"internal_energy": self.internal.describe() if self.internal is not None else None,
+    def describe(self, theta: dict | None = None) -> dict:
+        """Settings for the record: internal-energy model (with the fitted values of its free
+        parameters when ``theta`` is given) and polar treatment."""
+        values = {n: float(theta[n]) for n in self.internal_names} if theta else None
+        return {"internal_energy": self.internal.describe(values) if self.internal is not None else None,
                 "polar_correction": bool(self.polar)}

@@ -141,8 +141,13 @@ class InternalEnergyTransport:
         """True when :meth:`conductivity` needs ρD."""
         return self.name in ("eucken_diffusion", "mason_monchick")
 
-    def describe(self) -> dict:
-        return {"model": self.name, "fitted": list(self.free), "values": self.defaults,
+    def describe(self, values: dict | None = None) -> dict:
+        """The model for the record. ``values`` are the fitted values of the free parameters
+        (a fit's outcome); they replace the defaults in ``"values"``, so that a program reading
+        the record gets the model as fitted."""
+        written = self.defaults
+        written.update({k: float(v) for k, v in (values or {}).items() if k in written})
+        return {"model": self.name, "fitted": list(self.free), "values": written,
                 "reference": _REFERENCES[self.name],
                 "neglected": ("vibrational relaxation (vibrational energy diffuses only)"
                               if self.name == "mason_monchick" else "")}
@@ -151,8 +156,8 @@ class InternalEnergyTransport:
     def from_description(cls, d: dict) -> "InternalEnergyTransport":
         """Rebuild a model from :meth:`describe` output (e.g. read back from a parameter file).
 
-        Values of fitted parameters come back as starting values; the fitted values themselves
-        belong with σ and ε/k in θ.
+        Values of fitted parameters come back as starting values (they are the fitted values
+        when the record is a fit's); a fit's θ carries them too, with σ and ε/k.
         """
         return cls(d["model"], free=tuple(d.get("fitted", ())), fixed=tuple(d.get("values", {}).items()))
 
