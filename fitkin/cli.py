@@ -90,7 +90,8 @@ def build_parser() -> argparse.ArgumentParser:
                         "with n fitted), mie:N (n fixed), exp6 (exp-6 with α fitted), exp6:ALPHA, hs (hard "
                         "spheres), or a tabulated potential FILE; with several, the first is written to "
                         "parameters.json, the others to parameters-NAME.json, and a comparison table is shown")
-    p.add_argument("--order", type=int, default=3, help="Sonine approximation of Chapman–Enskog theory (default 3)")
+    p.add_argument("--order", type=int, default=3, choices=range(1, 7), metavar="N",
+                   help="Sonine approximation of Chapman–Enskog theory, 1 to 6 (default 3)")
     p.add_argument("--collision", choices=("computed", "neufeld"), default="computed",
                    help="collision integrals computed from the potential (default) or the Neufeld et al. "
                         "(1972) correlation (Lennard-Jones, order 1 only)")

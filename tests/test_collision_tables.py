@@ -6,6 +6,7 @@ from fitkin.collision import (clear_memory_cache, collision_table, compute_colli
                               reduced_collision_integral)
 from fitkin.collision.correlations import neufeld_omega11, neufeld_omega22
 from fitkin.collision.scattering import ScatteringResolution
+from fitkin.collision.tables import L_MAX, S_MAX
 from fitkin.errors import OutOfRangeError
 from fitkin.potentials import ExpSix, HardSphere, LennardJones, Mie, Tabulated
 
@@ -36,6 +37,22 @@ def test_lennard_jones_against_kim_monroe(lj_table, l, s):
     ref = np.array([km(t, l, s) for t in T])
     dev = np.abs(lj_table.omega(l, s, T) / ref - 1)
     assert dev.max() < 1.0e-4, f"max rel. deviation {dev.max():.2e} at T*={T[dev.argmax()]:.3g}"
+
+
+@pytest.mark.parametrize("l", [1, 2, 4, 6])
+def test_higher_s_follow_from_the_temperature_derivative(lj_table, l):
+    # Exact identity of the thermal average (differentiate Ω(l,s)* ∝ T*^-(s+2) ∫ e^(-E/T*)
+    # E^(s+1) Q dE under the integral; Hirschfelder, Curtiss & Bird 1954, §8.2, from memory):
+    #   Ω(l,s+1)* = Ω(l,s)* [1 + (d ln Ω(l,s)*/d ln T*) / (s + 2)].
+    # It checks the s > 8 integrals that only orders 5–6 use (no published table has them).
+    # Measured: at most 1.0e-6 for s = 8 … 11 over 0.06 ≤ T* ≤ 1500.
+    T = np.geomspace(0.06, 1500.0, 60)
+    h = 1e-4
+    for s in range(8, S_MAX):
+        slope = (np.log(lj_table.omega(l, s, T * np.exp(h)))
+                 - np.log(lj_table.omega(l, s, T * np.exp(-h)))) / (2 * h)
+        predicted = lj_table.omega(l, s, T) * (1 + slope / (s + 2))
+        np.testing.assert_allclose(lj_table.omega(l, s + 1, T), predicted, rtol=5e-6, err_msg=f"s={s}")
 
 
 def test_mie_12_6_is_lennard_jones(lj_table):
@@ -84,11 +101,12 @@ def test_interpolation_error_at_midpoints(lj_table):
     # cubic interpolation in ln T* against direct quadrature half-way between grid points
     ln = lj_table.ln_t
     mid = np.exp(0.5 * (ln[1:] + ln[:-1]))[::4]
-    direct = compute_collision_integrals(LennardJones(), mid, t_star_range=(0.05, 2000.0))
-    interp = np.array([[lj_table.omega(l, s, mid) for s in range(1, 9)] for l in range(1, 7)])
+    direct = compute_collision_integrals(LennardJones(), mid, t_star_range=(0.05, 2000.0), s_max=S_MAX)
+    interp = np.array([[lj_table.omega(l, s, mid) for s in range(1, S_MAX + 1)] for l in range(1, L_MAX + 1)])
     actual = np.abs(interp / direct - 1)
     assert actual.max() < 1e-5
-    estimate = np.array([[lj_table.error_estimate(l, s, mid) for s in range(1, 9)] for l in range(1, 7)])
+    estimate = np.array([[lj_table.error_estimate(l, s, mid) for s in range(1, S_MAX + 1)]
+                         for l in range(1, L_MAX + 1)])
     assert np.all(actual <= estimate + 2e-9)
 
 
@@ -96,9 +114,9 @@ def test_error_estimate_covers_actual_error(lj_table):
     # the estimate must bound the difference from a quadrature at twice the default nodes
     T = np.array([0.06, 0.3, 0.9, 3.0, 40.0, 900.0])
     ref = compute_collision_integrals(LennardJones(), T, resolution=ScatteringResolution().scaled(2.0),
-                                      t_star_range=(0.05, 2000.0))
-    for l in range(1, 7):
-        for s in range(1, 9):
+                                      t_star_range=(0.05, 2000.0), s_max=S_MAX)
+    for l in range(1, L_MAX + 1):
+        for s in range(1, S_MAX + 1):
             actual = np.abs(lj_table.omega(l, s, T) / ref[l - 1, s - 1] - 1)
             estimate = lj_table.error_estimate(l, s, T)
             assert np.all(actual <= estimate + 1e-7), (l, s)
@@ -115,8 +133,10 @@ def test_out_of_range_raises(lj_table):
         lj_table.omega(7, 1, 1.0)
     with pytest.raises(OutOfRangeError):
         lj_table.omega(0, 1, 1.0)
+    with pytest.raises(OutOfRangeError, match="s ≤ 12"):
+        lj_table.omega(2, 13, 1.0)
     assert lj_table.omega(2, 2, np.ones((3, 2))).shape == (3, 2)
-    assert (1, 1) in lj_table.pairs and (4, 4) in lj_table.pairs and (6, 8) in lj_table.pairs
+    assert (1, 1) in lj_table.pairs and (4, 4) in lj_table.pairs and (6, 12) in lj_table.pairs
 
 
 @pytest.mark.parametrize("pot,inner_tol", [(Mie(13.5, 6), 2e-5), (Mie(8.3, 6), 1e-4),

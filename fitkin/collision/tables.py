@@ -1,6 +1,6 @@
 r"""Reduced collision-integral tables of a potential shape, and their interpolation.
 
-A :class:`CollisionTable` holds ln Ω(l,s)* for 1 ≤ l ≤ 6, 1 ≤ s ≤ 8 on a grid uniform in
+A :class:`CollisionTable` holds ln Ω(l,s)* for 1 ≤ l ≤ 6, 1 ≤ s ≤ 12 on a grid uniform in
 ln T* (40 points per decade over :data:`TABLE_T_STAR_RANGE`), computed by
 :func:`fitkin.collision.averages.compute_collision_integrals`, with a not-a-knot cubic spline
 in ln T* whose coefficients are stored so that evaluation is a few numpy operations.
@@ -46,9 +46,13 @@ __all__ = [
 
 #: Reduced-temperature range of every table; outside it :class:`OutOfRangeError` is raised.
 TABLE_T_STAR_RANGE = (0.05, 2000.0)
-#: Highest l and s tabulated (all 1 ≤ l ≤ L_MAX, 1 ≤ s ≤ S_MAX).
+#: Highest l and s tabulated (all 1 ≤ l ≤ L_MAX, 1 ≤ s ≤ S_MAX): the sixth Sonine
+#: approximation of viscosity and conductivity needs Ω(l,s)* up to l = 6, s = 12
+#: (:func:`fitkin.theory.sonine.required_pairs`).  The cross sections Q^(l)(E) are computed
+#: once per energy for every l; each further s is one more thermal average, so s up to 12
+#: instead of 8 adds about 10 % to a table build (benchmarks/bench_collision.py).
 L_MAX = 6
-S_MAX = 8
+S_MAX = 12
 #: Table points per decade of T*.
 POINTS_PER_DECADE = 40
 #: A tabulated potential's table is valid up to T* = U*(first table point) / this factor
@@ -182,7 +186,7 @@ class CollisionTable:
 
         Parameters
         ----------
-        l, s : integers, 1 ≤ l ≤ 6, 1 ≤ s ≤ 8.
+        l, s : integers, 1 ≤ l ≤ 6, 1 ≤ s ≤ 12.
         T_star : array_like, reduced temperatures kT/ε inside :attr:`t_star_range`.
 
         Returns
@@ -241,15 +245,27 @@ def build_table(potential: Potential, resolution: ScatteringResolution | None = 
     return CollisionTable(potential, ln_t, ln_fine, ln_error, note="classical scattering quadrature")
 
 
+#: Grid points at either end of a table where the interpolation error estimate is the full
+#: miss of the every-other-point spline, not miss / 16 (see :func:`_interpolation_error`).
+EDGE_POINTS = 4
+
+
 def _interpolation_error(ln_t: np.ndarray, ln_omega: np.ndarray) -> np.ndarray:
     """Estimate of the cubic-spline error in ln T*: a spline through every other point
     misses the skipped points by about 2^4 = 16 times the full spline's error; that miss / 16
-    (running maximum over ±3 points, times 2 for safety) is returned, shape of ln_omega."""
+    (running maximum over ±3 points, times 2 for safety) is returned, shape of ln_omega.
+
+    Within :data:`EDGE_POINTS` of either end the not-a-knot end condition spoils the h⁴
+    scaling (measured for Lennard-Jones, s = 12: the error in the first interval reached 0.65
+    of the coarse spline's miss), so there the miss itself is taken."""
     even = CubicSpline(ln_t[::2], ln_omega[..., ::2], axis=-1, bc_type="not-a-knot")
-    miss = np.abs(even(ln_t[1::2]) - ln_omega[..., 1::2]) / 16.0
+    miss = np.abs(even(ln_t[1::2]) - ln_omega[..., 1::2])
     full = np.repeat(miss, 2, axis=-1)[..., : ln_t.size]
     if full.shape[-1] < ln_t.size:
         full = np.concatenate([full, full[..., -1:]], axis=-1)
+    scale = np.full(ln_t.size, 1.0 / 32.0)   # / 16, halved here, doubled for safety below
+    scale[:EDGE_POINTS] = scale[-EDGE_POINTS:] = 0.5
+    full = full * scale
     padded = np.pad(full, [(0, 0)] * (full.ndim - 1) + [(3, 3)], mode="edge")
     window = np.lib.stride_tricks.sliding_window_view(padded, 7, axis=-1)
     return 2.0 * np.max(window, axis=-1)
@@ -381,7 +397,7 @@ def reduced_collision_integral(potential: Potential, l: int, s: int, T_star) -> 
     Parameters
     ----------
     potential : a :class:`~fitkin.potentials.Potential`.
-    l, s : integers, 1 ≤ l ≤ 6, 1 ≤ s ≤ 8.
+    l, s : integers, 1 ≤ l ≤ 6, 1 ≤ s ≤ 12.
     T_star : array_like, reduced temperature kT/ε, 0.05 ≤ T* ≤ 2000.
 
     Returns

@@ -69,7 +69,8 @@ PROBLEMS = {
     "self_diffusion": ("vector", False, 0),
 }
 
-#: Highest order of approximation derived (cost grows steeply: about 4 s at order 6).
+#: Highest order of approximation derived (cost grows steeply: the first use of order 6 takes
+#: several seconds for viscosity and conductivity, see benchmarks/bench_collision.py).
 MAX_ORDER = 6
 
 
@@ -117,11 +118,20 @@ def hard_sphere_omega(l, s):
 
 
 def _pmul(a, b):
-    """Product of polynomials in (sin χ, cos χ) per quadrature node, arrays (N, D, D)."""
+    """Product of polynomials in (sin χ, cos χ) per quadrature node, arrays (N, D, D).
+
+    For each power i of the first variable present in ``a``, the convolution in the second
+    variable is a batched product with the lower-triangular Toeplitz matrix of a[:, i, :]
+    (one small matrix product per node), truncated at degree D − 1 in each variable.
+    """
     d = a.shape[1]
+    shift = np.arange(d)[:, None] - np.arange(d)[None, :]     # J − j
+    lower = shift >= 0
+    index = np.where(lower, shift, 0)
     out = np.zeros_like(a)
-    for i, j in np.argwhere(np.any(a != 0.0, axis=0)):
-        out[:, i:, j:] += a[:, i, j][:, None, None] * b[:, :d - i, :d - j]
+    for i in np.nonzero(np.any(a != 0.0, axis=(0, 2)))[0]:
+        toeplitz = np.where(lower, a[:, i, :][:, index], 0.0)   # [n, J, j] = a[n, i, J − j]
+        out[:, i:, :] += np.matmul(b[:, :d - i, :], np.swapaxes(toeplitz, 1, 2))
     return out
 
 
@@ -155,11 +165,12 @@ def _trial_functions(rank, p_max, shifted, nodes, d):
     powers = [constant(1.0)]
     for _ in range(p_max):
         powers.append(_pmul(powers[-1], w2))
-    result = []
+    result = np.empty((p_max + 1, len(components), n, d, d))
     for p in range(p_max + 1):
         sonine = sum(float(c) * powers[k] for k, c in enumerate(sonine_coefficients(index, p)))
-        result.append([_pmul(sonine, comp) for comp in components])
-    return np.array(result)
+        for c, comp in enumerate(components):
+            result[p, c] = _pmul(sonine, comp)
+    return result
 
 
 def _reduce_angles(k):
@@ -187,9 +198,13 @@ def _raw_brackets(rank, p_max):
     gx, gy, gz = np.meshgrid(x, x, x, indexing="ij")
     nodes = np.stack([gx.ravel(), gy.ravel(), gz.ravel()], axis=1)
     weights = (wts[:, None, None] * wts[None, :, None] * wts[None, None, :]).ravel()
-    fu = _trial_functions(rank, p_max, "u", nodes, d)[:, :, :, 0, :]
-    fw = _trial_functions(rank, p_max, "w", nodes, d)
-    return np.einsum("pkna,qknij,n->pqaij", fu, fw, weights)
+    fu = _trial_functions(rank, p_max, "u", nodes, d)[:, :, :, 0, :]      # (P, K, N, d)
+    fw = _trial_functions(rank, p_max, "w", nodes, d)                     # (P, K, N, d, d)
+    P, K, N = fu.shape[:3]
+    # Σ_{k,n} fu[p,k,n,a] w[n] fw[q,k,n,i,j] as one matrix product
+    left = np.transpose(fu * weights[None, None, :, None], (0, 3, 1, 2)).reshape(P * d, K * N)
+    right = fw.reshape(P, K * N, d * d).transpose(1, 0, 2).reshape(K * N, P * d * d)
+    return np.transpose((left @ right).reshape(P, d, P, d, d), (0, 2, 1, 3, 4))
 
 
 def bracket_coefficients(problem, order, reduced=True):

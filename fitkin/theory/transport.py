@@ -14,6 +14,7 @@ from scipy import constants
 
 from ..errors import FitkinError, OutOfRangeError
 from . import chapman_enskog as ce
+from .sonine import MAX_ORDER
 
 __all__ = ["TransportModel", "COLLISION_SOURCES"]
 
@@ -29,7 +30,7 @@ class TransportModel:
     Parameters
     ----------
     potential : a :class:`fitkin.potentials.Potential` (shape only); default Lennard-Jones 12-6.
-    order : Sonine approximation (1 = first; 2, 3, ... higher). Default 3.
+    order : Sonine approximation (1 = first; 2 … 6 higher). Default 3.
     collision : one of :data:`COLLISION_SOURCES`.
     """
 
@@ -44,8 +45,9 @@ class TransportModel:
         if self.potential is None:
             from ..potentials import LennardJones
             object.__setattr__(self, "potential", LennardJones())
-        if not isinstance(self.order, int) or self.order < 1:
-            raise FitkinError(f"Sonine order must be a whole number ≥ 1, got {self.order!r}")
+        if isinstance(self.order, bool) or not isinstance(self.order, int) or not 1 <= self.order <= MAX_ORDER:
+            raise FitkinError(f"Sonine order must be a whole number from 1 to {MAX_ORDER} (the orders whose "
+                              f"brackets and collision integrals fitkin has), got {self.order!r}")
         if self.collision == "neufeld":
             if getattr(self.potential, "name", None) != "lj":
                 raise FitkinError("the Neufeld correlation exists only for the Lennard-Jones 12-6 potential")
