@@ -13,7 +13,14 @@ from __future__ import annotations
 
 from pathlib import Path
 
-__all__ = ["PARAMETERS_NAME", "SAMPLES_NAME", "fit_record", "save_fit"]
+from .errors import FitkinError
+from .inference.eucken import eucken_entry
+from .inference.posterior import save_samples
+from .io.atomic import check_can_write
+from .io.parameter_file import result_to_record, write_parameter_file
+from .report import REPORT_NAME, write_report
+
+__all__ = ["PARAMETERS_NAME", "SAMPLES_NAME", "fit_record", "save_fit", "write_report_safely"]
 
 PARAMETERS_NAME = "parameters.json"
 SAMPLES_NAME = "samples.npz"
@@ -28,8 +35,6 @@ def fit_record(result, tables=(), *, label: str | None = None, posterior=None, s
     factor entry of a polyatomic gas, and the posterior section (``samples_ref`` from
     :func:`fitkin.inference.posterior.save_samples`).
     """
-    from .inference.eucken import eucken_entry
-    from .io.parameter_file import result_to_record
     t_star = result.data.temperature / result.value("epsilon_over_k")
     record = result_to_record(result, tables, t_star_range=(float(t_star.min()), float(t_star.max())))
     if label:
@@ -48,17 +53,18 @@ def save_fit(result, out_dir, *, tables=(), posterior=None, report: bool = True,
     """Write ``out_dir/parameters.json`` (and ``samples.npz`` with a posterior, and
     ``report.html`` with its figures); never replaces an existing file unless ``force``.
 
-    Returns {"parameters": path, "samples": path (if any), "report": path (if any)}.
+    A report that cannot be made does not undo the fit: the parameter file (and samples) are
+    written first, and the report's problem comes back as one sentence under
+    "report_problem" (see :func:`write_report_safely`).
+
+    Returns {"parameters": path, "samples": path (if any), "report": path (if made),
+    "report_problem": str (if the report failed)}.
     """
-    from .inference.posterior import save_samples
-    from .io.atomic import check_can_write
-    from .io.parameter_file import write_parameter_file
     out_dir = Path(out_dir)
     planned = [out_dir / PARAMETERS_NAME]
     if posterior is not None:
         planned.append(out_dir / SAMPLES_NAME)
     if report:
-        from .report import REPORT_NAME
         planned.append(out_dir / REPORT_NAME)
     for p in planned:
         check_can_write(p, force)
@@ -70,7 +76,28 @@ def save_fit(result, out_dir, *, tables=(), posterior=None, report: bool = True,
     record = fit_record(result, tables, label=label, posterior=posterior, samples_ref=ref, extra=extra)
     paths["parameters"] = write_parameter_file(record, out_dir / PARAMETERS_NAME, force=force)
     if report:
-        from .report import write_report
-        paths["report"] = write_report(record, out_dir, force=force, record_path=paths["parameters"],
-                                       pressure=report_pressure)
+        made, problem = write_report_safely(record, out_dir, force=force, record_path=paths["parameters"],
+                                            pressure=report_pressure)
+        if made is not None:
+            paths["report"] = made
+        else:
+            paths["report_problem"] = problem
     return paths
+
+
+def write_report_safely(record: dict, out_dir, *, force: bool = False, record_path=None,
+                        pressure: float = 101325.0):
+    """Write the report of a saved fit; a failure is returned as a sentence, never raised.
+
+    Returns (path of report.html, None) or (None, problem). The problem names what went
+    wrong and how to make the report later (``fitkin report PARAMETERS.json``); a fault in
+    fitkin itself is said to be one. The parameter file is already written when this runs.
+    """
+    again = f"fitkin report {record_path}" if record_path is not None else "fitkin report PARAMETERS.json"
+    try:
+        return write_report(record, out_dir, force=force, record_path=record_path, pressure=pressure), None
+    except FitkinError as exc:
+        return None, f"the report could not be made ({exc}); the parameters are saved; `{again}` tries again"
+    except Exception as exc:  # noqa: BLE001 - a fault of the report must not lose a finished fit
+        return None, (f"the report could not be made because of a fault in fitkin ({type(exc).__name__}: {exc}); "
+                      f"the parameters are saved; please report this, and `{again}` tries again")

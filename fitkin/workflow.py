@@ -17,12 +17,11 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from .errors import FitkinError
+from .errors import FitkinError, OutputExistsError
 from .inference.compare import PotentialChoice, comparison_rows, format_comparison, parse_potential_choice
 from .inference.fitdata import FitData
-from .inference.leastsq import fit_least_squares
+from .inference.leastsq import check_heat_capacity_covers, fit_least_squares, resolve_internal
 from .inference.sampling import sample_posterior
-from .io.atomic import check_can_write
 from .io.parameter_file import write_parameter_file
 from .report import REPORT_NAME
 from .saving import PARAMETERS_NAME, SAMPLES_NAME, fit_record, save_fit
@@ -122,8 +121,25 @@ def _planned_paths(out_dir: Path, choices, opts: FitOptions):
     return others, planned
 
 
+def _check_outputs(planned, force: bool) -> None:
+    """Refuse before any fitting when an earlier run left outputs here (unless ``force``)."""
+    if force:
+        return
+    left = [p for p in planned if p.exists()]
+    if left:
+        more = f" and {len(left) - 1} more of this run's outputs" if len(left) > 1 else ""
+        raise OutputExistsError(f"an earlier run left {left[0]}{more}; pass --force to replace them, or choose "
+                                "another output folder (--out)")
+
+
+def _check_coverage(data, gas, opts: FitOptions, gas_file) -> None:
+    """The heat-capacity table must cover the data (said before any fitting, with its origin)."""
+    where = f"{gas_file} [heat_capacity]" if gas_file else "the gas's c_p⁰ table"
+    check_heat_capacity_covers(gas, resolve_internal(opts.internal, gas, data), data, where=where)
+
+
 def run_fit_job(tables, gas, *, potentials="lj", options: FitOptions | None = None, kinds=None,
-                out_dir, force: bool = False, truth: dict | None = None) -> FitJobResult:
+                out_dir, force: bool = False, truth: dict | None = None, gas_file=None) -> FitJobResult:
     """Fit each potential choice to ``tables``, compare them, sample the first and save.
 
     Parameters
@@ -137,16 +153,19 @@ def run_fit_job(tables, gas, *, potentials="lj", options: FitOptions | None = No
     kinds : property kinds to fit (default all in the tables).
     out_dir : folder of the outputs; nothing is replaced there unless ``force``.
     truth : the parameters behind synthetic data (the demo), shown beside the estimates.
+    gas_file : the gas description file ``gas`` came from, named in messages about it.
 
-    Every output path is checked before any fitting, so a refusal costs no time.
+    Every output path, and that the gas's heat-capacity table covers the data, is checked
+    before any fitting, so a refusal costs no time. A report that cannot be made leaves the
+    fit a success: the parameter file is written and the problem is one of ``warnings``.
     """
     opts = options or FitOptions()
     choices = parse_potential_choices(potentials)
     out_dir = Path(out_dir)
     others, planned = _planned_paths(out_dir, choices, opts)
-    for t in planned:
-        check_can_write(t, force)  # fail before the work, not after it
+    _check_outputs(planned, force)  # fail before the work, not after it
     data = FitData.from_tables(tables, kinds)
+    _check_coverage(data, gas, opts, gas_file)
     results = [_fit(data, gas, c, opts) for c in choices]
     extra = {"demo_truth": dict(truth)} if truth else {}
     texts = [format_fit_summary(results[0], None, truth=truth)]
@@ -171,7 +190,9 @@ def run_fit_job(tables, gas, *, potentials="lj", options: FitOptions | None = No
         written.append(f"Posterior samples written to {saved['samples']}")
     if "report" in saved:
         written.append(f"Report written to {saved['report']}")
+    job_warnings = (saved["report_problem"],) if "report_problem" in saved else ()
+    written += [f"warning: {w}" for w in job_warnings]
     texts.append("\n".join(written))
-    warnings = tuple(results[0].warnings) + tuple(getattr(post, "warnings", ()) or ())
+    warnings = tuple(results[0].warnings) + tuple(getattr(post, "warnings", ()) or ()) + job_warnings
     return FitJobResult(results=tuple(results), choices=tuple(choices), posterior=post, comparison=rows,
                         paths=saved, warnings=warnings, summary="\n\n".join(texts))

@@ -21,7 +21,8 @@ from .model import ANGSTROM, ForwardModel, resolve_internal_model
 from .result import PARAMETER_UNITS, FitResult, ParameterEstimate
 from .start import epsilon_bounds, starting_values
 
-__all__ = ["fit_least_squares", "resolve_internal", "SHAPE_BOUNDS", "SIGMA_BOUNDS_ANGSTROM", "diagnose"]
+__all__ = ["fit_least_squares", "resolve_internal", "SHAPE_BOUNDS", "SIGMA_BOUNDS_ANGSTROM", "diagnose",
+           "check_heat_capacity_covers"]
 
 SIGMA_BOUNDS_ANGSTROM = (1.0, 30.0)
 #: Bounds of free shape parameters: Mie repulsive exponent n, exp-6 steepness α.
@@ -37,6 +38,26 @@ def resolve_internal(internal, gas: Gas, data: FitData):
     """The internal-energy model to fit with: see :func:`fit_least_squares` and
     :func:`~fitkin.inference.model.resolve_internal_model`."""
     return resolve_internal_model(internal, gas, data.kinds)
+
+
+def check_heat_capacity_covers(gas: Gas, internal, data: FitData, where: str = "the gas's c_p⁰ table") -> None:
+    """Raise :class:`OutOfRangeError` naming both ranges when the model needs c_p⁰ (an
+    internal-energy conductivity model) at temperatures its heat-capacity model does not cover.
+
+    ``where`` names the table in the message, e.g. "gas.toml [heat_capacity]".
+    """
+    hc = gas.heat_capacity
+    if internal is None or internal.name == "monatomic" or hc is None:
+        return
+    lo, hi = hc.temperature_range
+    T = data.temperature
+    outside = (T < lo * (1 - 1e-12)) | (T > hi * (1 + 1e-12))
+    if outside.any():
+        raise OutOfRangeError(
+            f"{where} covers {lo:g}–{hi:g} K, but the data span {T.min():g}–{T.max():g} K ({int(outside.sum())} of "
+            f"{len(T)} points outside); the {internal.name} conductivity model needs c_p⁰ at every measured "
+            "temperature and fitkin does not extrapolate it: extend the table to cover the data, or leave out "
+            "the points outside it")
 
 
 def _residual_function(model: ForwardModel, data: FitData):
@@ -58,18 +79,19 @@ def _start(model: ForwardModel, data: FitData):
         model = ForwardModel(gas=model.gas, potential=model.potential, free_shape=model.free_shape,
                              order=model.order, collision=model.collision, internal=model.internal, polar=False)
     grids = [SHAPE_START_GRID[name] for name in model.free_shape]
-    best = None
+    best, problem = None, None
     for combo in (np.array(np.meshgrid(*grids)).reshape(len(grids), -1).T if grids else [()]):
         shape = dict(zip(model.free_shape, combo))
         shape.update({n: model.internal.defaults[n] for n in model.internal_names})
         try:
             sig, eps, chi2 = starting_values(model, data, shape)
-        except FitError:
+        except FitError as exc:
+            problem = exc
             continue
         if best is None or chi2 < best[2]:
             best = (sig, eps, chi2, shape)
     if best is None:
-        raise FitError("no starting point found for any shape on the start grid")
+        raise FitError(f"no starting point found for any shape on the start grid: {problem}")
     return best
 
 
@@ -109,6 +131,7 @@ def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(),
     model = ForwardModel(gas=gas, potential=potential, free_shape=tuple(free_shape), order=order,
                          collision=collision, internal=resolve_internal(internal, gas, data),
                          polar=gas.is_polar if polar is None else bool(polar))
+    check_heat_capacity_covers(gas, model.internal, data)
     n_free = 2 + len(model.free_shape) - len(fixed)
     if len(data) <= n_free:
         raise FitError(f"{len(data)} points cannot determine {n_free} parameters; give more points")

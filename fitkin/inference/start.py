@@ -35,8 +35,11 @@ def epsilon_bounds(data: FitData, t_star_range: tuple[float, float], margin: flo
     eps_min = data.temperature.max() / hi_t * margin
     eps_max = data.temperature.min() / lo_t / margin
     if not eps_min < eps_max:
-        raise FitError(f"measured temperatures {data.temperature.min():.4g}..{data.temperature.max():.4g} K "
-                       f"span more than the computed reduced-temperature range {lo_t:g}..{hi_t:g} allows")
+        raise FitError(f"the measured temperatures {data.temperature.min():.4g}–{data.temperature.max():.4g} K span "
+                       f"a factor {data.temperature.max() / data.temperature.min():.3g}, more than the factor "
+                       f"{hi_t / lo_t:.3g} of the reduced-temperature range T* = {lo_t:g}–{hi_t:g} that this "
+                       "potential's collision integrals cover, so no ε/k keeps every point inside it: fit a "
+                       "narrower temperature range")
     return eps_min, eps_max
 
 
@@ -85,11 +88,12 @@ def starting_values(model: ForwardModel, data: FitData, shape: dict | None = Non
         raise FitError("no ε/k between 1 K and 20 000 K keeps the data inside the computed T* range")
     y, w = data.value, 1.0 / data.sigma_y
     cubic = np.isin(data.kind, SIGMA_CUBED_KINDS)
-    best = None
+    best, problem = None, None
     for eps in np.geomspace(eps_lo, eps_hi, points):
         try:
             a = model.unit_prediction(eps, shape, data)
-        except OutOfRangeError:
+        except OutOfRangeError as exc:
+            problem = exc
             continue
         sigma, chi2 = profile_sigma(a, y, w, cubic)
         if not np.isfinite(sigma):
@@ -97,5 +101,6 @@ def starting_values(model: ForwardModel, data: FitData, shape: dict | None = Non
         if best is None or chi2 < best[2]:
             best = (sigma, float(eps), chi2)
     if best is None:
-        raise FitError("could not find any starting point: the model could not be evaluated at the data")
+        raise FitError("could not find any starting point: the model could not be evaluated at the data"
+                       + (f" ({problem})" if problem is not None else ""))
     return best

@@ -16,17 +16,33 @@ from dataclasses import dataclass
 from pathlib import Path
 
 import numpy as np
+from scipy.special import erfinv
 
-from ..errors import FitkinError, OutOfRangeError
+from ..errors import FitkinError, OutOfRangeError, ParameterFileError
 from ..fitted import FittedGas, potential_from_record
+from ..inference.model import with_shape
+from ..inference.posterior import load_samples
 from ..theory.transport import TransportModel
 
-__all__ = ["Curve", "RecordModel", "posterior_samples", "POSTERIOR_BAND_DRAWS", "REPORT_SEED"]
+__all__ = ["Curve", "CoveredRange", "RecordModel", "posterior_samples", "POSTERIOR_BAND_DRAWS", "REPORT_SEED",
+           "EPSILON_SPREAD"]
 
 #: Number of posterior samples pushed through the model for a band.
 POSTERIOR_BAND_DRAWS = 300
 #: Seed of every random choice the report makes (thinning of samples for bands and plots).
 REPORT_SEED = 20261201
+#: Central probability of the ε/k values for which the curves must stay inside the
+#: collision-integral T* range (so that nearly every parameter draw of a band can be evaluated).
+EPSILON_SPREAD = 0.99
+
+
+@dataclass(frozen=True)
+class CoveredRange:
+    """A temperature range (K) the model covers, and where the limit comes from (a sentence)."""
+
+    low: float
+    high: float
+    origin: str
 
 
 @dataclass(frozen=True)
@@ -43,6 +59,7 @@ class Curve:
     upper: np.ndarray
     probability: float
     source: str
+    note: str = ""
 
 
 def _posterior_entry(record: dict) -> dict | None:
@@ -63,8 +80,6 @@ def posterior_samples(record: dict, record_path=None) -> dict[str, np.ndarray] |
     ref = post.get("samples") if post else None
     if not isinstance(ref, dict) or not ref.get("file"):
         return None
-    from ..errors import ParameterFileError
-    from ..inference.posterior import load_samples
     base = Path(record_path).parent if record_path is not None else Path(".")
     try:
         names, samples = load_samples(ref, base)
@@ -105,7 +120,6 @@ class RecordModel:
         shape = {k: theta[k] for k in self.free_shape if k in theta}
         if not shape:
             return self.base
-        from ..inference.model import with_shape
         return TransportModel(with_shape(self.potential, **shape), order=self.order, collision=self.collision)
 
     def t_star_range(self) -> tuple[float, float]:
@@ -117,6 +131,50 @@ class RecordModel:
         lo, hi = self.t_star_range()
         eps = self.theta["epsilon_over_k"]
         return lo * eps, hi * eps
+
+    def epsilon_spread(self, probability: float = EPSILON_SPREAD) -> tuple[float, float]:
+        """Central ``probability`` range of ε/k (K): from the posterior samples when there are
+        any, else value ± z·u of the least-squares standard uncertainty (Gaussian)."""
+        p = self.record["parameters"]["epsilon_over_k"]
+        value = float(p["value"])
+        tail = (1 - probability) / 2
+        if self.samples and "epsilon_over_k" in self.samples:
+            lo, hi = np.quantile(self.samples["epsilon_over_k"], [tail, 1 - tail])
+            return float(min(lo, value)), float(max(hi, value))
+        u = p.get("stderr")
+        if not p.get("varied", True) or not isinstance(u, (int, float)) or not np.isfinite(u) or u <= 0:
+            return value, value
+        z = float(np.sqrt(2.0) * erfinv(probability))
+        return max(value - z * u, value * 1e-3), value + z * u
+
+    @property
+    def uses_heat_capacity(self) -> bool:
+        """True when the predictions need c_p⁰ (an internal-energy conductivity model)."""
+        internal = (self.record.get("theory") or {}).get("internal_energy")
+        return isinstance(internal, dict) and internal.get("model") not in (None, "monatomic")
+
+    def covered_ranges(self) -> list[CoveredRange]:
+        """Every temperature range the model covers: the collision integrals' T* range at the
+        spread of ε/k (:meth:`epsilon_spread`), and the c_p⁰ table of a polyatomic gas."""
+        out = []
+        if self.record["potential"].get("name") != "hs":
+            ts_lo, ts_hi = self.t_star_range()
+            e_lo, e_hi = self.epsilon_spread()
+            if e_lo == e_hi:
+                text = f"for ε/k = {e_lo:.4g} K"
+            else:
+                text = f"for every ε/k in its {100 * EPSILON_SPREAD:.0f} % range {e_lo:.4g}–{e_hi:.4g} K"
+            out.append(CoveredRange(ts_lo * e_hi, ts_hi * e_lo,
+                                    f"the collision integrals cover T* = {ts_lo:g}–{ts_hi:g}, that is "
+                                    f"{ts_lo * e_hi:.4g}–{ts_hi * e_lo:.4g} K {text}"))
+        hc = self.fitted.gas.heat_capacity
+        lo, hi = hc.temperature_range if hc is not None else (0.0, float("inf"))
+        if self.uses_heat_capacity and (lo > 0 or np.isfinite(hi)):
+            source = f" ({hc.source})" if getattr(hc, "source", "") else ""
+            out.append(CoveredRange(float(lo), float(hi),
+                                    f"the gas's c_p⁰ table{source} covers {lo:g}–{hi:g} K, and fitkin does not "
+                                    "extrapolate it"))
+        return out
 
     def evaluate(self, kind: str, T, theta: dict | None = None) -> np.ndarray:
         """Property ``kind`` ('viscosity' or 'conductivity') at T for parameters ``theta``.
@@ -132,7 +190,12 @@ class RecordModel:
         return np.asarray(self.transport().omega(2, 2, np.asarray(T, dtype=float) / self.theta["epsilon_over_k"]))
 
     def curve(self, kind: str, T, probability: float = 0.95) -> Curve:
-        """Model ``kind`` at T with a central ``probability`` band (posterior if sampled)."""
+        """Model ``kind`` at T with a central ``probability`` band (posterior if sampled).
+
+        When too many parameter draws fall outside what the model covers for a band, the
+        curve comes without one (``source`` "none"); only a central curve that cannot be
+        evaluated raises :class:`~fitkin.errors.OutOfRangeError`.
+        """
         T = np.asarray(T, dtype=float)
         if self.samples and {"sigma", "epsilon_over_k"} <= set(self.samples):
             rows = self._sample_rows()
@@ -149,11 +212,9 @@ class RecordModel:
         try:
             med, lo, hi = self.fitted.predict(kind, T, band=probability)
             return Curve(kind, T, med, lo, hi, probability, "covariance")
-        except OutOfRangeError:
-            raise
-        except FitkinError:
+        except FitkinError as exc:  # no usable covariance, or draws outside the covered range
             y = self.evaluate(kind, T)
-            return Curve(kind, T, y, y, y, probability, "none")
+            return Curve(kind, T, y, y, y, probability, "none", note=str(exc))
 
     def _sample_rows(self) -> list[dict]:
         names = [n for n in self.samples if n in self.record["parameters"]]

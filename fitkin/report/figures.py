@@ -66,14 +66,35 @@ def measured_range(record: dict, kind: str | None = None) -> tuple[float, float]
     return float(lo), float(hi)
 
 
-def property_grid(model: RecordModel, n: int = 160, extend: float = 0.15) -> np.ndarray:
-    """Temperatures for the curves: the measured range widened by ``extend`` on both sides,
-    clipped to where the collision integrals are available."""
+def property_grid(model: RecordModel, n: int = 160, extend: float = 0.15) -> tuple[np.ndarray, list[str]]:
+    """Temperatures for the curves and why they stop where they do.
+
+    The measured range widened by ``extend`` on both sides, then cut to every range the model
+    covers (:meth:`RecordModel.covered_ranges`: the collision integrals' T* range for the whole
+    spread of ε/k, the c_p⁰ table). Returns (T, stops): ``stops`` has one sentence per end that
+    a covered range cut, e.g. "the curves stop at 1000 K: the gas's c_p⁰ table ... covers
+    150–1000 K, and fitkin does not extrapolate it". The grid never shrinks inside the
+    measured range (a fit whose data reach an edge keeps its data range).
+    """
     lo, hi = measured_range(model.record)
-    t_lo, t_hi = model.temperature_limits()
-    a = max(lo * (1 - extend), t_lo * 1.0001)
-    b = min(hi * (1 + extend), t_hi * 0.9999)
-    return np.geomspace(a, b, n)
+    a, b = lo * (1 - extend), hi * (1 + extend)
+    cut_lo = cut_hi = None
+    for r in model.covered_ranges():
+        if r.low > a:
+            a, cut_lo = r.low, r
+        if r.high < b:
+            b, cut_hi = r.high, r
+    stops = []
+    if cut_lo is not None and cut_lo is cut_hi:
+        stops.append(f"the curves span only {a:.4g}–{b:.4g} K, not the measured range widened by "
+                     f"{100 * extend:.0f} %: {cut_lo.origin}")
+    else:
+        for end, cut, t in (("lower", cut_lo, a), ("upper", cut_hi, b)):
+            if cut is not None:
+                stops.append(f"the curves stop at {t:.4g} K, less than {100 * extend:.0f} % beyond the {end} end of "
+                             f"the data: {cut.origin}")
+    a, b = min(a * 1.0001, lo), max(b * 0.9999, hi)
+    return np.geomspace(a, b, n), stops
 
 
 def _shade_outside(ax, lo: float, hi: float, T: np.ndarray) -> None:

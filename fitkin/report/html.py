@@ -15,7 +15,7 @@ from pathlib import Path
 import numpy as np
 
 from .. import __version__
-from ..errors import OutputExistsError
+from ..errors import OutOfRangeError, OutputExistsError
 from ..io.atomic import check_can_write, write_bytes_atomic, write_text_atomic
 from ..summary import format_estimate
 from . import figures as fg
@@ -43,10 +43,15 @@ CAUTION = ("Parameters and predictions in this report come from a model fitted t
 def _prepare(record: dict, record_path=None, pressure: float = 101325.0) -> ReportContext:
     model = RecordModel(record, record_path)
     ctx = ReportContext(record=record, record_path=record_path, pressure=pressure, model=model)
-    T = fg.property_grid(model)
-    ctx.curves = {k: model.curve(k, T) for k in st.shown_kinds(record)}
-    ctx.comparison = elementary_comparison(record, pressure=pressure, model=model)
+    T, ctx.curve_stops = fg.property_grid(model)
     ctx.findings = report_findings(record, model)
+    ctx.findings += [Finding("note", text) for text in ctx.curve_stops]
+    for kind in st.shown_kinds(record):
+        try:
+            ctx.curves[kind] = model.curve(kind, T)
+        except OutOfRangeError as exc:  # the fitted parameters themselves reach outside the model
+            ctx.findings.append(Finding("warning", f"no {kind.replace('_', ' ')} curve is drawn: {exc}"))
+    ctx.comparison = elementary_comparison(record, pressure=pressure, model=model)
     unplotted = sorted({r.get("property") for r in record.get("residuals") or []} - set(st.DISPLAY))
     for kind in unplotted:
         rows = [r for r in record["residuals"] if r.get("property") == kind]
@@ -56,10 +61,10 @@ def _prepare(record: dict, record_path=None, pressure: float = 101325.0) -> Repo
         ctx.findings.append(Finding("note", f"{len(rows)} {kind.replace('_', ' ')} points entered the fit but are "
                                             f"not plotted in this report{rms}; their residuals are in the "
                                             "parameter file"))
-    if any(c.source == "none" for c in ctx.curves.values()):
-        ctx.findings.insert(0, Finding("warning", "the parameter file has no usable covariance or samples, so the "
-                                                  "curves carry no uncertainty band: the parameters' uncertainty "
-                                                  "is unknown"))
+    for kind, c in ctx.curves.items():
+        if c.source == "none":
+            ctx.findings.insert(0, Finding("warning", f"the {kind.replace('_', ' ')} curve carries no uncertainty "
+                                                      f"band: {c.note or 'the parameter file has no usable covariance or samples'}"))
     return ctx
 
 
@@ -77,7 +82,8 @@ def _figures(ctx: ReportContext) -> None:
         ctx.add_figure(f"fit_{kind}", fg.fit_figure(model, kind, curve),
                        f"{kind.capitalize()} {sym} [{unit}] against temperature: {what}; the Chapman–Enskog fit "
                        f"with its {100 * curve.probability:.0f} % band from {band}; dashed and tinted where "
-                       f"extrapolated. Below: the band's half-widths relative to the fit.")
+                       f"extrapolated. Below: the band's half-widths relative to the fit."
+                       + "".join(f" {t[0].upper()}{t[1:]}." for t in ctx.curve_stops))
     if any(r.get("property") in st.DISPLAY for r in rec.get("residuals") or []):
         ctx.add_figure("deviations", fg.deviation_figure(rec, ctx.curves),
                        f"Deviations 100 (measured − fit)/fit against temperature (for B: measured − fit in cm³/mol), "

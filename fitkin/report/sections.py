@@ -65,6 +65,7 @@ class ReportContext:
 
     ``figures`` maps a figure name to (matplotlib Figure, caption); every figure a builder
     adds there is embedded in the page and saved as PNG and SVG. ``png`` caches renderings.
+    ``curve_stops`` says where the curves stop short of the widened data range, and why.
     """
 
     record: dict
@@ -72,6 +73,7 @@ class ReportContext:
     pressure: float = 101325.0
     model: object = None
     curves: dict = field(default_factory=dict)
+    curve_stops: list = field(default_factory=list)
     comparison: object = None
     findings: list = field(default_factory=list)
     figures: dict = field(default_factory=dict)
