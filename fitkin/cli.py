@@ -12,7 +12,7 @@ import warnings
 from pathlib import Path
 
 from . import __version__
-from .errors import FitkinError, InputProblems
+from .errors import FitkinError, FitkinWarning, InputProblems
 
 __all__ = ["main", "build_parser"]
 
@@ -168,6 +168,7 @@ def main(argv: list[str] | None = None) -> int:
     try:
         with warnings.catch_warnings():
             warnings.simplefilter("ignore", RuntimeWarning)
+            warnings.showwarning = _one_line_warning
             return handler(args, out=sys.stdout)
     except InputProblems as exc:
         n = len(exc.problems)
@@ -188,6 +189,14 @@ def main(argv: list[str] | None = None) -> int:
               "This is a fault in fitkin, not in your input. Run again with FITKIN_DEBUG=1 for details "
               "and report it.", file=sys.stderr)
         return EXIT_INTERNAL
+
+
+def _one_line_warning(message, category, filename, lineno, file=None, line=None):
+    """fitkin's own warnings as one line on stderr; any other warning as Python shows it."""
+    if issubclass(category, FitkinWarning):
+        print(f"fitkin: warning: {message}", file=sys.stderr)
+    else:
+        print(warnings.formatwarning(message, category, filename, lineno, line), end="", file=sys.stderr)
 
 
 def _entry() -> None:  # pragma: no cover

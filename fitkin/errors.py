@@ -16,6 +16,7 @@ __all__ = [
     "FitError",
     "ParameterFileError",
     "OutputExistsError",
+    "FitkinWarning",
 ]
 
 
@@ -95,3 +96,7 @@ class ParameterFileError(FitkinError):
 
 class OutputExistsError(FitkinError):
     """An output that already exists and would be overwritten without ``--force``."""
+
+
+class FitkinWarning(UserWarning):
+    """Something a user should know that does not stop the run (the command line prints one line)."""

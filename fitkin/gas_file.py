@@ -9,12 +9,14 @@ from __future__ import annotations
 
 import difflib
 import math
+import os
 import tomllib
 from pathlib import Path
 
 import numpy as np
 
-from .errors import FitkinError, GasError
+from .errors import FitkinError, GasError, InputError
+from .io.encoding import decode_text
 from .units import parse_quantity, parse_unit, to_si, ureg
 
 __all__ = ["read_gas_file", "parse_gas_description", "GAS_FILE_KEYS"]
@@ -53,14 +55,24 @@ def read_gas_file(path) -> "Gas":  # noqa: F821 - forward reference to fitkin.sp
     GasError : missing file, TOML syntax error, unknown key, wrong type or unit, or
         inconsistent entries; the message names the file and key.
     """
+    if not isinstance(path, (str, os.PathLike)):
+        raise GasError(f"a gas file name must be text or a path, got {type(path).__name__} {path!r}")
     p = Path(path)
     try:
-        with p.open("rb") as fh:
-            data = tomllib.load(fh)
+        raw = p.read_bytes()
     except FileNotFoundError:
         raise GasError(f"{p}: gas file not found") from None
     except IsADirectoryError:
         raise GasError(f"{p}: is a directory, expected a gas description file (.toml)") from None
+    except (OSError, ValueError) as exc:
+        raise GasError(f"{p}: cannot read the gas file ({getattr(exc, 'strerror', None) or exc})") from None
+    try:
+        text, _ = decode_text(raw, str(p), what="a gas description file (TOML)",
+                              hint="see docs/gas-file.md for an example", legacy_8bit=False)
+    except InputError as exc:
+        raise GasError(str(exc)) from None
+    try:
+        data = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
         raise GasError(f"{p}: not valid TOML ({exc}); see docs/gas-file.md for an example") from None
     return parse_gas_description(data, file=str(p))

@@ -45,7 +45,7 @@ def format_fit_summary(result, record_path=None, truth: dict | None = None) -> s
     elif s.get("polar_correction"):
         lines.append("Polar (Stockmayer) correction of the collision integrals")
     for kind, info in result.data.summary().items():
-        lines.append(f"Data: {kind}: {info['points']} points, {info['T_min_K']:.1f}–{info['T_max_K']:.1f} K, "
+        lines.append(f"Data: {kind}: {info['points']} point{'' if info['points'] == 1 else 's'}, {info['T_min_K']:.1f}–{info['T_max_K']:.1f} K, "
                      f"sources {', '.join(info['sources'])}")
     lines.append(f"Weighting: {s.get('weighting')}")
     lines.append("")

@@ -130,7 +130,12 @@ def test_unwritable_cache_warns_but_works(tmp_path, monkeypatch, counted_build):
     blocker.write_text("x", encoding="utf-8")
     monkeypatch.setenv("FITKIN_CACHE_DIR", str(blocker))
     clear_memory_cache()
-    with pytest.warns(RuntimeWarning, match="not written"):
+    cache._WARNED.clear()
+    with pytest.warns(cache.CacheWarning, match="not writable") as record:
         t = collision_table(HardSphere())
+        collision_table(Mie(14, 6))  # a second table, same folder: no second warning
+    assert len([w for w in record if issubclass(w.category, cache.CacheWarning)]) == 1
+    assert "rebuilt on every run" in str(record[0].message) and "FITKIN_CACHE_DIR" in str(record[0].message)
     assert float(t.omega(2, 2, 1.0)) == pytest.approx(1.0, abs=1e-8)
     clear_memory_cache()
+    cache._WARNED.clear()

@@ -19,28 +19,32 @@ import warnings
 from pathlib import Path
 
 import numpy as np
+import platformdirs
 
-__all__ = ["ALGORITHM_VERSION", "cache_dir", "cache_path", "load_arrays", "save_arrays"]
+from fitkin import __version__
+from fitkin.errors import FitkinWarning
+
+__all__ = ["ALGORITHM_VERSION", "CacheWarning", "cache_dir", "cache_path", "load_arrays", "save_arrays"]
 
 #: Bump whenever a change to the quadrature or table layout changes the numbers.
 ALGORITHM_VERSION = 2
 
+#: Folders already warned about in this process (one warning per folder, not per table).
+_WARNED: set[str] = set()
+
+
+class CacheWarning(FitkinWarning):
+    """The collision-table cache cannot be written: tables are rebuilt on every run."""
+
 
 def _fitkin_version() -> str:
-    from fitkin import __version__
-
     return __version__
 
 
 def cache_dir() -> Path:
     """The folder of collision-table files (not created here)."""
     env = os.environ.get("FITKIN_CACHE_DIR")
-    if env:
-        base = Path(env)
-    else:
-        import platformdirs
-
-        base = Path(platformdirs.user_cache_dir("fitkin"))
+    base = Path(env) if env else Path(platformdirs.user_cache_dir("fitkin"))
     return base / "collision"
 
 
@@ -91,10 +95,20 @@ def save_arrays(key: str, arrays: dict[str, np.ndarray], extra: dict | None = No
                 pass
             raise
     except OSError as exc:
-        warnings.warn(f"collision-table cache not written to {path.parent}: {exc}", RuntimeWarning,
-                      stacklevel=2)
+        _warn_unwritable(path.parent, exc)
         return None
     return path
+
+
+def _warn_unwritable(folder: Path, exc: OSError) -> None:
+    """One warning per folder: the run goes on, without caching."""
+    if str(folder) in _WARNED:
+        return
+    _WARNED.add(str(folder))
+    reason = exc.strerror or type(exc).__name__
+    warnings.warn(f"the collision-table cache {folder} is not writable ({reason}): tables are not "
+                  "cached and are rebuilt on every run; set FITKIN_CACHE_DIR to a writable folder",
+                  CacheWarning, stacklevel=3)
 
 
 def load_arrays(key: str, required: tuple[str, ...] = ()) -> tuple[dict[str, np.ndarray], dict] | None:
@@ -105,7 +119,10 @@ def load_arrays(key: str, required: tuple[str, ...] = ()) -> tuple[dict[str, np.
     of the arrays matches.
     """
     path = cache_path(key)
-    if not path.is_file():
+    try:
+        if not path.is_file():
+            return None
+    except OSError:  # a folder that cannot be searched: treated as no cache entry
         return None
     try:
         with np.load(path, allow_pickle=False) as data:

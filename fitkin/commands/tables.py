@@ -33,5 +33,5 @@ def run_check(args, out) -> int:
     tables = read_from_args(args)
     for table in tables:
         print("\n".join(describe_table(table)), file=out)
-    print(f"{len(tables)} file(s) read without errors.", file=out)
+    print(f"{len(tables)} file{'' if len(tables) == 1 else 's'} read without errors.", file=out)
     return 0

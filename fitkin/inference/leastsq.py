@@ -134,7 +134,8 @@ def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(),
     check_heat_capacity_covers(gas, model.internal, data)
     n_free = 2 + len(model.free_shape) - len(fixed)
     if len(data) <= n_free:
-        raise FitError(f"{len(data)} points cannot determine {n_free} parameters; give more points")
+        raise FitError(f"{len(data)} point{'' if len(data) == 1 else 's'} cannot determine {n_free} parameters; "
+                       "give more points")
 
     sig0, eps0, _, shape0 = _start(model, data)
     eps_lo, eps_hi = epsilon_bounds(data, model.transport(shape0 or None).t_star_range)

@@ -157,7 +157,8 @@ class TableAssembler:
         if len(bad_rows) > MAX_CELL_PROBLEMS:
             rest = bad_rows[MAX_CELL_PROBLEMS:]
             self.problems.append(InputError(
-                f"{len(rest)} more cells that are not numbers ({validate.format_rows(rest)})",
+                f"{len(rest)} more {'cells that are not numbers' if len(rest) > 1 else 'cell that is not a number'} "
+                f"({validate.format_rows(rest)})",
                 file=self.file, row=rest[0], column=spec.header,
                 hint="the first ones are listed above; is the column separator or the decimal "
                 "separator what the file uses?"))
@@ -192,14 +193,15 @@ class TableAssembler:
                 f"column '{spec.header}' holds {spec.kind.label} values but the table has no pressure "
                 f"column; {why}", file=self.file, row=int(self.rows[np.argmax(missing)]), column=spec.header,
                 hint="add a pressure column, e.g. 'p [kPa]' (a 'p' column whose header has no unit needs "
-                "one given: units={'p': 'kPa'}, on the command line --unit p=kPa); or, when every point "
-                "was measured at one pressure, pass it in Pa as read_table(..., default_pressure=...)"))
+                "one given: on the command line --unit p=kPa, in Python units={'p': 'kPa'}); or, when every "
+                "point was measured at one pressure, give it: on the command line --pressure '101.325 kPa', "
+                "in Python read_table(..., default_pressure=101325.0) (Pa)"))
         elif column.unit is not None:
             self.problems.append(InputError(
                 f"no pressure for the {spec.kind.label} value ({validate.format_rows(self.rows[missing])}); "
                 f"{why}", file=self.file, row=int(self.rows[np.argmax(missing)]), column=column.header,
-                hint="fill in the pressure of these rows, or pass a default in Pa as "
-                "read_table(..., default_pressure=...)"))
+                hint="fill in the pressure of these rows, or give one for rows without: on the command "
+                "line --pressure '101.325 kPa', in Python read_table(..., default_pressure=101325.0) (Pa)"))
         return p
 
     def _sources(self) -> np.ndarray:

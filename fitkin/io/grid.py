@@ -10,11 +10,14 @@ from __future__ import annotations
 
 import csv
 import re
-from dataclasses import dataclass, field
 from pathlib import Path
 
 from fitkin.errors import InputError
+from fitkin.io.cells import CellGrid
+from fitkin.io.encoding import decode_text
+from fitkin.io.headers import column_letter
 from fitkin.io.numbers import is_blank
+from fitkin.io.workbook import read_workbook
 
 __all__ = ["CellGrid", "read_grid", "detect_delimiter", "delimiter_name", "DELIMITERS"]
 
@@ -27,25 +30,6 @@ _SAMPLE_ROWS = 50
 _SEP_LINE = re.compile(r"^sep=(.)$", re.IGNORECASE)
 
 
-@dataclass
-class CellGrid:
-    """The non-comment, non-blank rows of a file.
-
-    Attributes
-    ----------
-    rows : list of (row number in the file, cells); cells are str for text files and
-        str/float/int/None for workbooks.
-    comments : the comment lines, without the leading '#'.
-    notes : findings about the reading worth a warning (encoding guessed, for example).
-    delimiter : the column separator of a text file; None for a workbook.
-    """
-
-    rows: list[tuple[int, list]] = field(default_factory=list)
-    comments: list[str] = field(default_factory=list)
-    notes: list[str] = field(default_factory=list)
-    delimiter: str | None = None
-
-
 def read_grid(data: bytes, path: str, *, sheet: str | int | None = None) -> CellGrid:
     """Read file bytes into a :class:`CellGrid`; workbook or text is told from the content.
 
@@ -56,7 +40,6 @@ def read_grid(data: bytes, path: str, *, sheet: str | int | None = None) -> Cell
     """
     suffix = Path(path).suffix.lower()
     if data.startswith(_ZIP_MAGIC):
-        from fitkin.io.workbook import read_workbook
         return read_workbook(data, path, sheet=sheet)
     if suffix in (".xlsx", ".xlsm"):
         raise InputError("not a readable .xlsx workbook (the file is not a zip archive)", file=path,
@@ -67,37 +50,10 @@ def read_grid(data: bytes, path: str, *, sheet: str | int | None = None) -> Cell
     if sheet is not None:
         raise InputError(f"a sheet ('{sheet}') was asked for, but this is a text file", file=path,
                          hint="sheets apply only to .xlsx workbooks")
-    text, notes = _decode(data, path)
+    text, notes = decode_text(data, path)
     grid = _split_text(text, path)
     grid.notes[:0] = notes
     return grid
-
-
-def _decode(data: bytes, path: str) -> tuple[str, list[str]]:
-    notes: list[str] = []
-    if data.startswith((b"\xff\xfe", b"\xfe\xff")):
-        try:
-            return data.decode("utf-16"), notes
-        except UnicodeDecodeError:
-            raise InputError("the file starts like UTF-16 text but cannot be decoded", file=path,
-                             hint="save it as UTF-8 CSV") from None
-    if b"\x00" in data:
-        raise InputError("this is a binary file, not a text table (it contains NUL bytes)",
-                         file=path, hint="give a CSV/TSV text file or an .xlsx workbook")
-    try:
-        text = data.decode("utf-8-sig")
-    except UnicodeDecodeError:
-        try:
-            text = data.decode("cp1252")
-            notes.append(f"{path}: not UTF-8; read as Windows-1252 text (check °, µ in the header)")
-        except UnicodeDecodeError:
-            text = data.decode("latin-1")
-            notes.append(f"{path}: not UTF-8; read as Latin-1 text (check °, µ in the header)")
-    text = text.rstrip("\x1a")  # DOS end-of-file marker
-    if any(ord(c) < 32 and c not in "\t\n\r\f\v" for c in text):
-        raise InputError("this is a binary file, not a text table (it contains control characters)",
-                         file=path, hint="give a CSV/TSV text file or an .xlsx workbook")
-    return text, notes
 
 
 def _split_text(text: str, path: str) -> CellGrid:
@@ -130,6 +86,7 @@ def _split_text(text: str, path: str) -> CellGrid:
             yield line
 
     reader = csv.reader(feed(), delimiter=grid.delimiter, skipinitialspace=True)
+    by_row = dict(content)
     while True:
         consumed = len(starts)
         try:
@@ -137,13 +94,62 @@ def _split_text(text: str, path: str) -> CellGrid:
         except StopIteration:
             break
         except csv.Error as exc:
+            if len(starts) - consumed > 1:  # e.g. the field-size limit, hit by an open quotation mark
+                raise _open_quote(path, starts[consumed], starts[-1], by_row, grid.delimiter,
+                                  closed=False) from None
             raise InputError(f"cannot split the line into cells ({exc})", file=path,
                              row=starts[-1] if starts else None,
                              hint="check for unbalanced quotation marks") from None
+        if len(starts) - consumed > 1:
+            # a quoted cell ran over the end of its line: a quotation mark left open
+            raise _open_quote(path, starts[consumed], starts[-1], by_row, grid.delimiter,
+                              closed=_closes(by_row[starts[-1]]))
         if all(is_blank(c) for c in cells):
             continue  # a line of only separators, e.g. ';;;' from a spreadsheet export
         grid.rows.append((starts[consumed], cells))
     return grid
+
+
+def _open_quote(path: str, first: int, last: int, lines: dict[int, str], delimiter: str,
+                closed: bool) -> InputError:
+    """The error for a quotation mark opened in row ``first`` that the line does not close."""
+    column = _open_quote_column(lines[first], delimiter)
+    if closed:
+        what = (f"the quoted cell runs on over the line break to row {last}, where a quotation "
+                "mark closes it; a table cell cannot span lines")
+    else:
+        what = (f"it is never closed, so rows {first}-{last} (the rest of the file) would be read "
+                "as one cell")
+    return InputError(f"a quotation mark opens a cell in this row and is not closed on the line; {what}",
+                      file=path, row=first, column=column,
+                      hint=f"add the closing quotation mark in row {first} or remove the opening one")
+
+
+def _open_quote_column(line: str, delimiter: str) -> str | None:
+    """Spreadsheet letter of the cell whose opening quotation mark the line leaves open."""
+    index, quoted, at_start = 0, False, True
+    opened = None
+    i = 0
+    while i < len(line):
+        c = line[i]
+        if quoted:
+            if c == '"':
+                if i + 1 < len(line) and line[i + 1] == '"':
+                    i += 1  # an escaped quotation mark inside the cell
+                else:
+                    quoted = False
+        elif c == delimiter:
+            index, at_start = index + 1, True
+        elif c == '"' and at_start:
+            quoted, opened = True, index
+        elif not c.isspace():
+            at_start = False
+        i += 1
+    return column_letter(opened) if quoted and opened is not None else None
+
+
+def _closes(line: str) -> bool:
+    return line.count('"') % 2 == 1
 
 
 def detect_delimiter(lines: list[str]) -> str:

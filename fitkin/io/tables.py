@@ -24,16 +24,19 @@ flagged in :attr:`MeasuredTable.warnings`, naming the rows.
 from __future__ import annotations
 
 import hashlib
+import os
+import shlex
 from collections.abc import Iterable, Mapping
 from pathlib import Path
 
-from fitkin.errors import InputError, InputProblems
+from fitkin.errors import InputError, InputProblems, UnitError
 from fitkin.io.assemble import TableAssembler
+from fitkin.io.cells import CellGrid
 from fitkin.io.grid import read_grid
-from fitkin.io.headers import ColumnSpec, parse_header, parse_unit_overrides
-from fitkin.io.numbers import CellValueError, is_blank, parse_number
-from fitkin.io.quantities import QUANTITY_KINDS
-from fitkin.measurements import PROPERTY_KINDS, MeasuredTable
+from fitkin.io.header_checks import require_columns, unit_row_hint
+from fitkin.io.headers import parse_header, parse_unit_overrides
+from fitkin.io.numbers import is_blank
+from fitkin.measurements import MeasuredTable
 
 __all__ = ["read_table", "read_tables", "DEFAULT_PRESSURE_LIMIT"]
 
@@ -76,20 +79,24 @@ def read_table(path, *, sheet: str | int | None = None, units: Mapping[str, str]
     if default_pressure is not None and not (default_pressure > 0 and default_pressure < float("inf")):
         raise InputError(f"the default pressure must be a positive number of pascals, got {default_pressure!r}")
     overrides = parse_unit_overrides(units)
-    file = str(path)
+    file = _file_name(path)
     data = _read_bytes(Path(path), file)
     grid = read_grid(data, file, sheet=sheet)
     if not grid.rows:
-        what = "only comment lines" if grid.comments else "nothing"
-        raise InputError(f"the file is empty (it holds {what})", file=file,
-                         hint="the first non-comment row must be a header such as 'T [K], viscosity [µPa s]'")
+        raise _empty(grid, file)
     header_row, header_cells = grid.rows[0]
     header_cells = ["" if is_blank(c) else str(c).strip() for c in header_cells]
     while header_cells and not header_cells[-1]:
         header_cells.pop()  # trailing empty cells of spreadsheet exports
     specs, problems, warnings = parse_header(header_cells, row=header_row, file=file,
                                              overrides=overrides)
-    _require_columns(specs, header_cells, header_row, file)
+    unit_row = unit_row_hint(specs, grid.rows[1] if len(grid.rows) > 1 else None, header_row)
+    try:
+        require_columns(specs, header_cells, header_row, file, unit_row=unit_row)
+    except InputError as exc:
+        raise _with_sheet_hint(exc, grid) from None
+    if unit_row is not None and any(isinstance(p, UnitError) for p in problems):
+        raise InputError(unit_row.message, file=file, row=unit_row.row, hint=unit_row.hint)
     body = grid.rows[1:]
     if not body:
         raise InputError("the table has a header but no data rows", file=file, row=header_row)
@@ -112,66 +119,112 @@ def read_table(path, *, sheet: str | int | None = None, units: Mapping[str, str]
 def read_tables(paths: Iterable, **kwargs) -> tuple[MeasuredTable, ...]:
     """Read several tables with the same options; the problems of all files are raised together.
 
+    The same content given twice (two paths, or one path twice) would count its points twice
+    in a fit; it is refused, naming both files (the tables are compared by the SHA-256 of
+    their bytes, and for a workbook also by sheet).
+
     Raises
     ------
-    InputProblems : the file-level errors and cell problems of every file, in file order.
+    InputError : ``paths`` is not a list of file names.
+    InputProblems : the file-level errors and cell problems of every file, in file order,
+        and every table given more than once.
     """
-    if isinstance(paths, (str, Path)):
+    if isinstance(paths, (str, os.PathLike)):
         paths = [paths]
+    try:
+        paths = list(paths)
+    except TypeError:
+        raise InputError(f"expected a list of table files, got {type(paths).__name__} {paths!r}",
+                         hint="pass file names, e.g. read_tables(['viscosity.csv'])") from None
     tables, problems = [], []
+    seen: dict[tuple[str, str], str] = {}
     for path in paths:
         try:
-            tables.append(read_table(path, **kwargs))
+            table = read_table(path, **kwargs)
         except InputProblems as exc:
             problems.extend(exc.problems)
+            continue
         except InputError as exc:
             problems.append(exc)
+            continue
+        key = (table.sha256, str(kwargs.get("sheet")))
+        if key in seen:
+            same = "given twice" if seen[key] == table.path else f"has the same content as {seen[key]}"
+            problems.append(InputError(
+                f"this table {same} (identical bytes, sha256 {table.sha256[:12]}…); its points "
+                "would count twice in a fit", file=table.path, hint="give each table once"))
+            continue
+        seen[key] = table.path
+        tables.append(table)
     if problems:
         raise InputProblems(problems)
     return tuple(tables)
 
 
+def _file_name(path) -> str:
+    if isinstance(path, bytes):
+        path = os.fsdecode(path)
+    if not isinstance(path, (str, os.PathLike)):
+        raise InputError(f"a table file name must be text or a path, got {type(path).__name__} {path!r}",
+                         hint="pass the file name, e.g. read_table('viscosity.csv')")
+    text = os.fspath(path)
+    if not str(text).strip():
+        raise InputError("the table file name is empty", hint="pass the file name, e.g. read_table('viscosity.csv')")
+    return str(text)
+
+
+def _empty(grid: CellGrid, file: str) -> InputError:
+    what = "only comment lines" if grid.comments else "nothing"
+    hint = "the first non-comment row must be a header such as 'T [K], viscosity [µPa s]'"
+    if grid.sheet is not None:
+        which = "" if grid.sheet_chosen else " (the first)"
+        return InputError(f"sheet '{grid.sheet}'{which} of the workbook holds {what}", file=file,
+                          hint=_other_sheets(grid, this=False) or hint)
+    return InputError(f"the file is empty (it holds {what})", file=file, hint=hint)
+
+
+def _other_sheets(grid: CellGrid, this: bool = True) -> str:
+    """"the workbook's other sheets are 'Data' (3 rows): choose one with --sheet Data ...", or ''."""
+    others = [(name, n) for name, n in grid.sheets if name != grid.sheet]
+    if not others:
+        return ""
+    listed = ", ".join(f"'{name}' ({_rows(n)})" for name, n in others)
+    text = f"the workbook's other sheet{'s are' if len(others) > 1 else ' is'} {listed}"
+    if this:
+        which = "" if grid.sheet_chosen else ", the first"
+        text = f"this is sheet '{grid.sheet}'{which}; {text}"
+    filled = [name for name, n in others if n]
+    if filled:
+        name = filled[0]
+        text += f": choose one with --sheet {shlex.quote(name)} (in Python sheet={name!r})"
+    return text
+
+
+def _rows(n: int) -> str:
+    return "empty" if n == 0 else f"{n} row" + ("" if n == 1 else "s")
+
+
+def _with_sheet_hint(exc: InputError, grid: CellGrid) -> InputError:
+    """The same error with the workbook's other sheets named, when there are any with data."""
+    others = _other_sheets(grid) if grid.sheet is not None else ""
+    if not others or not any(n for name, n in grid.sheets if name != grid.sheet):
+        return exc
+    hint = f"{exc.hint}; or the data are on another sheet: {others}" if exc.hint else others
+    return type(exc)(exc.message, file=exc.file, row=exc.row, column=exc.column, hint=hint)
+
+
 def _read_bytes(path: Path, file: str) -> bytes:
-    if not path.exists():
-        raise InputError("file not found", file=file, hint="check the path and the file name")
-    if path.is_dir():
-        raise InputError("this is a directory, not a table file", file=file)
     try:
+        if path.is_dir():
+            raise InputError("this is a directory, not a table file", file=file)
         data = path.read_bytes()
-    except OSError as exc:
-        raise InputError(f"cannot read the file ({exc.strerror or exc})", file=file) from None
+    except FileNotFoundError:
+        raise InputError("file not found", file=file, hint="check the path and the file name") from None
+    except (OSError, ValueError) as exc:  # ValueError: a NUL character in the name
+        raise InputError(f"cannot read the file ({getattr(exc, 'strerror', None) or exc})", file=file) from None
     if not data.strip():
         raise InputError("the file is empty", file=file,
                          hint="the first non-comment row must be a header such as 'T [K], viscosity [µPa s]'")
     return data
 
 
-def _require_columns(specs: list[ColumnSpec], cells: list[str], row: int, file: str) -> None:
-    header_looks_numeric = bool(cells) and all(_looks_numeric(c) for c in cells if c)
-    missing_header = ("the first non-comment row is read as the header, and it holds numbers; "
-                      "add a header such as 'T [K], viscosity [µPa s]' (remove a leading '#' if "
-                      "it is commented out)")
-    filled = [c for c in cells if c]
-    if len(filled) < 2:
-        single = filled[0] if filled else ""
-        hint = ("separate columns with commas, semicolons or tabs" if "[" in single or "(" in single
-                else "if this row is a note, start it with '#' to make it a comment")
-        raise InputError(f"the header row has a single cell ('{single}')", file=file, row=row,
-                         hint=hint)
-    if not any(s.role == "quantity" and s.kind.role == "temperature" for s in specs):
-        raise InputError("no temperature column", file=file, row=row,
-                         hint=missing_header if header_looks_numeric else
-                         "name one column 'T', 'temperature' or 'temp' with its unit, e.g. 'T [K]'")
-    if not any(s.role == "quantity" and s.kind.name in PROPERTY_KINDS for s in specs):
-        names = " or ".join(f"'{k.synonyms[0]}'" for k in QUANTITY_KINDS if k.name in PROPERTY_KINDS)
-        raise InputError("no property column", file=file, row=row,
-                         hint=f"name a column {names} (or a synonym) with its unit, "
-                         "e.g. 'viscosity [µPa s]'")
-
-
-def _looks_numeric(cell: str) -> bool:
-    try:
-        parse_number(cell, decimal_comma="," in cell)
-        return True
-    except CellValueError:
-        return False

@@ -135,7 +135,8 @@ def check_plausible(spec: ColumnSpec, raw, si, rows, file: str, *, scale=None,
         else:
             hint = f"no common unit of {kind.label} brings them into range; check the unit and the values"
         return [InputError(
-            f"{out.sum()} of {stated.sum()} values ({format_rows(rows[out])}) cannot be the "
+            f"{out.sum()} of {stated.sum()} value{'' if stated.sum() == 1 else 's'} "
+            f"({format_rows(rows[out])}) cannot be the "
             f"{kind.label} of a dilute gas: {text(first)}, "
             f"expected {range_text}",
             file=file, row=int(rows[first]), column=spec.header, hint=hint)]

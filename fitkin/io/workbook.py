@@ -9,8 +9,10 @@ import io
 import warnings
 import zipfile
 
+import openpyxl
+
 from fitkin.errors import InputError, InputProblems
-from fitkin.io.grid import CellGrid
+from fitkin.io.cells import CellGrid
 from fitkin.io.numbers import is_blank
 
 __all__ = ["read_workbook"]
@@ -28,8 +30,6 @@ def read_workbook(data: bytes, path: str, *, sheet: str | int | None = None) -> 
     InputError : not a workbook (a zip of something else, damaged), unknown sheet.
     InputProblems : formula cells without a stored value.
     """
-    import openpyxl
-
     try:
         with warnings.catch_warnings():
             warnings.simplefilter("ignore")  # openpyxl warns about styles and extensions
@@ -55,7 +55,7 @@ def read_workbook(data: bytes, path: str, *, sheet: str | int | None = None) -> 
         raise InputError(f"the workbook has no sheet '{sheet}'", file=path,
                          hint=f"sheets: {', '.join(repr(n) for n in names)}")
     _check_cached_formulas(ws, formulas[ws.title], path)
-    grid = CellGrid()
+    grid = CellGrid(sheet=ws.title, sheet_chosen=sheet is not None)
     if len(names) > 1 and sheet is None:
         grid.notes.append(f"{path}: read the first sheet '{ws.title}' of {len(names)}")
     for number, values in enumerate(ws.iter_rows(min_row=1, max_row=ws.max_row,
@@ -68,8 +68,15 @@ def read_workbook(data: bytes, path: str, *, sheet: str | int | None = None) -> 
             grid.comments.append(" ".join(str(c) for c in filled)[1:].strip())
             continue
         grid.rows.append((number, ["" if c is None else c for c in cells]))
+    grid.sheets = tuple((other.title, len(grid.rows) + len(grid.comments) if other is ws
+                         else _filled_rows(other)) for other in book.worksheets)
     book.close()
     return grid
+
+
+def _filled_rows(ws) -> int:
+    """Number of rows of a worksheet with at least one non-blank cell."""
+    return sum(1 for values in ws.iter_rows(values_only=True) if any(not is_blank(v) for v in values))
 
 
 def _check_cached_formulas(values_ws, formulas_ws, path: str) -> None:

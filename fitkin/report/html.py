@@ -58,7 +58,8 @@ def _prepare(record: dict, record_path=None, pressure: float = 101325.0) -> Repo
         z = [(r["measured_SI"] - r["model_SI"]) / r["uncertainty_SI"] for r in rows
              if isinstance(r.get("uncertainty_SI"), (int, float)) and r["uncertainty_SI"] > 0]
         rms = f"; rms (measured − fit)/u = {np.sqrt(np.mean(np.square(z))):.2f}" if z else ""
-        ctx.findings.append(Finding("note", f"{len(rows)} {kind.replace('_', ' ')} points entered the fit but are "
+        ctx.findings.append(Finding("note", f"{len(rows)} {kind.replace('_', ' ')} point{'' if len(rows) == 1 else 's'} "
+                                            "entered the fit but are "
                                             f"not plotted in this report{rms}; their residuals are in the "
                                             "parameter file"))
     for kind, c in ctx.curves.items():
