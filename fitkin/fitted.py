@@ -13,6 +13,7 @@ import numpy as np
 from .errors import FitkinError, OutOfRangeError, ParameterFileError
 from .inference.model import ANGSTROM
 from .io.parameter_file import read_parameter_file
+from .potentials import potential_from_record
 from .species import Gas
 from .theory.transport import TransportModel
 
@@ -20,19 +21,6 @@ __all__ = ["FittedGas", "load_parameters", "potential_from_record"]
 
 #: Number of parameter draws used for uncertainty bands from the covariance.
 BAND_DRAWS = 400
-
-
-def potential_from_record(entry: dict):
-    """Rebuild the potential shape from the parameter file's ``potential`` entry."""
-    from . import potentials
-    families = {"lj": "LennardJones", "hs": "HardSphere", "mie": "Mie", "exp6": "ExpSix"}
-    name = entry.get("name")
-    if name not in families:
-        raise ParameterFileError(f"potential '{name}' in the parameter file is not one fitkin can rebuild "
-                                 f"(known: {', '.join(families)})")
-    cls = getattr(potentials, families[name])
-    shape = entry.get("shape_parameters") or {}
-    return cls(**shape) if (shape and name in ("mie", "exp6")) else cls()
 
 
 @dataclass

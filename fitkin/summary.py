@@ -16,12 +16,13 @@ _UNIT_TEXT = {"angstrom": "Å", "K": "K", "1": ""}
 def _potential_text(settings: dict) -> str:
     from .fitted import potential_from_record
     try:
-        text = potential_from_record({"name": settings.get("potential"),
-                                      "shape_parameters": settings.get("shape_parameters") or {}}).describe()
+        text = potential_from_record(settings.get("potential_record") or {
+            "name": settings.get("potential"), "shape_parameters": settings.get("shape_parameters") or {}}).describe()
     except FitkinError:  # a shape fitkin cannot rebuild (tabulated): its name is enough here
         text = str(settings.get("potential"))
     free = settings.get("free_shape") or []
-    return f"{text} potential" + (f" ({', '.join(free)} fitted)" if free else "")
+    text = text if "potential" in text else f"{text} potential"
+    return text + (f" ({', '.join(free)} fitted)" if free else "")
 
 
 def format_estimate(value: float, stderr: float) -> str:

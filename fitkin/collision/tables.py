@@ -106,9 +106,14 @@ class CollisionTable:
         """Valid range: the grid, cut for a tabulated wall at T*_max = U*_first / 10."""
         self._lo = float(np.exp(self.ln_t[0]))
         self._hi = float(np.exp(self.ln_t[-1]))
+        self.range_note = None
         wall = getattr(self.potential, "max_energy_star", None)
-        if wall is not None:
-            self._hi = min(self._hi, float(wall) / WALL_ENERGY_FACTOR)
+        if wall is not None and float(wall) / WALL_ENERGY_FACTOR < self._hi:
+            self._hi = float(wall) / WALL_ENERGY_FACTOR
+            self.range_note = (
+                f"the tabulated potential's first point lies at U = {float(wall):.3g} ε, so its collision "
+                f"integrals stop at T* = {self._hi:.3g} (fitkin does not trust the extrapolated wall above "
+                f"U = {WALL_ENERGY_FACTOR:g} kT); extend the table to shorter distances to reach higher T*")
             if self._hi <= self._lo * 2.0:
                 raise PotentialError(
                     f"{self.potential.describe()}: the table's repulsive wall reaches only "
@@ -136,7 +141,8 @@ class CollisionTable:
     # ------------------------------------------------------------------ description
     @property
     def t_star_range(self) -> tuple[float, float]:
-        """(lowest, highest) reduced temperature of the table."""
+        """(lowest, highest) reduced temperature of the table; :attr:`range_note` says why
+        the top is lower than :data:`TABLE_T_STAR_RANGE` (a tabulated potential's wall), else None."""
         return (self._lo, self._hi)
 
     @property

@@ -10,10 +10,14 @@ Multimodel Inference, 2nd ed. (2002), §2.2).
 from __future__ import annotations
 
 from dataclasses import dataclass
+from pathlib import Path
 
 import numpy as np
 
+from .. import potentials as pots
 from ..errors import FitkinError
+from ..measurements import SIGNED_KINDS
+from ..summary import format_estimate
 from .fitdata import FitData
 from .leastsq import fit_least_squares
 from .result import FitResult
@@ -36,10 +40,9 @@ class PotentialChoice:
 
 def parse_potential_choice(text: str) -> PotentialChoice:
     """Read ``lj``, ``hs``, ``mie`` (n free, m = 6), ``mie:14`` (n fixed), ``mie:14:7`` (n, m fixed),
-    ``exp6`` (α free), ``exp6:14`` (α fixed), or a path to a tabulated potential file."""
-    from pathlib import Path
-
-    from .. import potentials as pots
+    ``exp6`` (α free), ``exp6:14`` (α fixed), or a path to a tabulated potential file
+    (docs/file-formats.md, "Tabulated potential tables"; labelled ``NAME (tabulated)``, its
+    σ and ε/k rescale the table's own zero crossing and well depth)."""
     spec = text.strip()
     name, _, rest = spec.partition(":")
     name = name.lower()
@@ -60,8 +63,10 @@ def parse_potential_choice(text: str) -> PotentialChoice:
         if not values:
             return PotentialChoice("exp6 (α free)", pots.ExpSix(14.0), ("alpha",))
         return PotentialChoice(spec, pots.ExpSix(values[0]))
-    if Path(spec).is_file():
-        return PotentialChoice(Path(spec).name, pots.Tabulated.from_file(spec))
+    path = Path(spec)
+    if path.is_file() or (name not in POTENTIAL_NAMES and (path.suffix or len(path.parts) > 1)):
+        # a file name: read it (a missing or unreadable file gets the reader's own message)
+        return PotentialChoice(f"{path.name} (tabulated)", pots.Tabulated.from_file(spec))
     raise FitkinError(f"unknown potential '{text}'; use lj, hs, mie, mie:N, exp6, exp6:ALPHA "
                       "or the path of a tabulated potential file")
 
@@ -98,14 +103,12 @@ def comparison_rows(fits):
 
 def _max_relative_deviation(res: FitResult) -> float:
     """Largest |deviation| in % over the kinds where a relative deviation means something."""
-    from ..measurements import SIGNED_KINDS
     keep = ~np.isin(res.data.kind, SIGNED_KINDS)
     return float(np.max(np.abs(res.residual_percent[keep]))) if np.any(keep) else float("nan")
 
 
 def format_comparison(rows) -> str:
     """The comparison rows as an aligned text table."""
-    from ..summary import format_estimate
     head = f"  {'potential':<16} {'σ [Å]':>16} {'ε/k [K]':>14} {'shape':>14} {'χ²/ν':>7} {'AIC':>9} " \
            f"{'BIC':>9} {'ΔBIC':>7} {'max dev %':>9}"
     lines = [head]

@@ -179,6 +179,11 @@ def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(),
         extra={"start": {"sigma": sig0, "epsilon_over_k": eps0, **shape0},
                "bounds": {n: [float(p.min), float(p.max)] for n, p in out.params.items()}},
     )
+    reach = model.transport(shape0 or None).t_star_range_note
+    if reach and np.isclose(eps_lo, data.temperature.max() / model.transport(shape0 or None).t_star_range[1], rtol=1e-3):
+        reach = (f"ε/k was kept ≥ {eps_lo:.4g} K so that {data.temperature.max():.4g} K stays inside the computed "
+                 f"T* range: {reach}")
+        return _with_warnings(result, diagnose(result) + [reach])
     return _with_warnings(result, diagnose(result))
 
 

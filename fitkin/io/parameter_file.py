@@ -61,7 +61,8 @@ def result_to_record(result, tables=(), t_star_range=None) -> dict:
         "schema": SCHEMA_NAME,
         "schema_version": SCHEMA_VERSION,
         "gas": result.gas.to_dict(),
-        "potential": {"name": settings.get("potential"), "shape_parameters": settings.get("shape_parameters", {}),
+        "potential": {**(settings.get("potential_record") or {"name": settings.get("potential"),
+                                                              "shape_parameters": settings.get("shape_parameters", {})}),
                       "free_shape": settings.get("free_shape", [])},
         "parameters": {n: {"value": p.value, "stderr": p.stderr, "unit": p.unit, "varied": p.vary}
                        for n, p in result.parameters.items()},

@@ -10,10 +10,11 @@ from scipy import constants
 from scipy.interpolate import CubicSpline
 from scipy.optimize import brentq, minimize_scalar
 
-from fitkin.errors import InputError, PotentialError
+from fitkin.errors import InputError, PotentialError, UnitError
 from fitkin.potentials.base import Potential
+from fitkin.units import parse_unit, to_si, ureg
 
-__all__ = ["Tabulated", "MIN_TABLE_POINTS"]
+__all__ = ["Tabulated", "MIN_TABLE_POINTS", "table_sha256"]
 
 #: Fewest points a table may have: the spline needs a few points on the repulsive wall,
 #: around the well and on the attractive tail.
@@ -23,8 +24,6 @@ MIN_TABLE_POINTS = 10
 def _energy_over_k(values: np.ndarray, unit_text: str, *, file=None, column=None) -> np.ndarray:
     """Convert energies in ``unit_text`` to U/k_B in kelvin (temperature, energy, molar
     energy or wavenumber units are accepted)."""
-    from fitkin.units import parse_unit, ureg
-
     unit = parse_unit(unit_text, file=file, column=column)
     q = ureg.Quantity(np.asarray(values, dtype=float), unit)
     dim = unit.dimensionality
@@ -36,16 +35,23 @@ def _energy_over_k(values: np.ndarray, unit_text: str, *, file=None, column=None
         return np.asarray(q.to("J/mol").magnitude, dtype=float) / constants.R
     if dim == (1 / ureg.meter).dimensionality:
         return np.asarray(q.to("1/m").magnitude, dtype=float) * constants.h * constants.c / constants.k
-    from fitkin.errors import UnitError
     raise UnitError(f"'{unit_text}' is not an energy unit (K, J, kJ/mol, cm^-1, meV, ...)",
                     file=file, column=column)
 
 
 def _length_m(values: np.ndarray, unit_text: str, *, file=None, column=None) -> np.ndarray:
-    from fitkin.units import parse_unit, to_si
-
     unit = parse_unit(unit_text, file=file, column=column)
     return to_si(values, unit, "m", file=file, column=column)
+
+
+def table_sha256(distance_m, energy_over_k) -> str:
+    """SHA-256 (hex) of a potential table: the distances in metres, then the energies U/k_B in
+    kelvin, each as little-endian IEEE-754 doubles.  The same numbers give the same hash on
+    every machine; the parameter file stores it beside the embedded table."""
+    h = hashlib.sha256()
+    for values in (distance_m, energy_over_k):
+        h.update(np.ascontiguousarray(np.asarray(values, dtype="<f8")).tobytes())
+    return h.hexdigest()
 
 
 class Tabulated(Potential):
@@ -123,6 +129,8 @@ class Tabulated(Potential):
                                  f"(U rises again at point {bad + 1} of the table, before the minimum)")
         if u[-1] >= 0:
             raise PotentialError(f"tabulated potential{where}: the last point must be attractive (U < 0)")
+        self._r_m = r.copy()
+        self._u_k = u.copy()
         # reduce: zero crossing and well depth from the spline
         spline = CubicSpline(r, r ** 6 * u, bc_type="not-a-knot")
         energy = lambda x: float(spline(x)) / x ** 6  # noqa: E731
@@ -199,6 +207,55 @@ class Tabulated(Potential):
             wall = -p * a * x ** (-p - 1.0)
             tail = 6.0 * c6 * x ** -7 + 8.0 * c8 * x ** -9
         return np.where(x < self._x[0], wall, np.where(x > self._x[-1], tail, inner))
+
+    # ------------------------------------------------------------------------- record
+    def table_record(self) -> dict:
+        """The table as a JSON-ready dict, as embedded in a parameter file (docs/file-formats.md).
+
+        Keys: ``distance_m`` and ``energy_over_k_K`` (the table as read, in SI and U/k_B),
+        ``sha256`` (:func:`table_sha256` of those two lists), ``points``, ``source``, and the
+        table's own ``zero_crossing_angstrom`` and ``well_depth_K``, the σ and ε/k the fitted
+        ones rescale.  Floats are written exactly (JSON keeps every digit of a double), so
+        :meth:`from_table_record` rebuilds the identical shape.
+        """
+        return {"points": int(self._r_m.size), "source": self.source,
+                "zero_crossing_angstrom": self.sigma * 1e10, "well_depth_K": self.epsilon_over_k,
+                "sha256": table_sha256(self._r_m, self._u_k),
+                "distance_m": [float(v) for v in self._r_m],
+                "energy_over_k_K": [float(v) for v in self._u_k]}
+
+    @classmethod
+    def from_table_record(cls, entry) -> "Tabulated":
+        """Rebuild the shape from :meth:`table_record`'s dict; the hash must match.
+
+        Raises
+        ------
+        PotentialError : a missing or malformed entry, or numbers that no longer match the
+            stored SHA-256 (the table was edited after the fit).
+        """
+        if not isinstance(entry, dict):
+            raise PotentialError("the tabulated potential's 'table' entry is missing from the parameter file; "
+                                 "it holds the table the fit used (refit to write it)")
+        try:
+            r = np.array(entry["distance_m"], dtype=float)
+            u = np.array(entry["energy_over_k_K"], dtype=float)
+            digest = str(entry["sha256"])
+        except (KeyError, TypeError, ValueError) as exc:
+            raise PotentialError(f"the tabulated potential's table in the parameter file is incomplete or not "
+                                 f"numbers ({type(exc).__name__}: {exc}); expected distance_m, "
+                                 "energy_over_k_K and sha256 (docs/file-formats.md)") from None
+        if r.ndim != 1 or r.shape != u.shape:
+            raise PotentialError("the tabulated potential's table in the parameter file needs two lists of the "
+                                 "same length, distance_m and energy_over_k_K")
+        found = table_sha256(r, u)
+        if found != digest:
+            raise PotentialError(f"the tabulated potential's table in the parameter file does not match its "
+                                 f"sha256 (stored {digest[:12]}…, the numbers give {found[:12]}…): the table was "
+                                 "changed after the fit; restore it or refit with the new table")
+        obj = cls.__new__(cls)
+        obj.source = entry.get("source")
+        obj._setup(r, u)
+        return obj
 
     # --------------------------------------------------------------------------- file
     @classmethod

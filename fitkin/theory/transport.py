@@ -13,6 +13,7 @@ import numpy as np
 from scipy import constants
 
 from ..errors import FitkinError, OutOfRangeError
+from ..potentials import potential_record
 from . import chapman_enskog as ce
 from .sonine import MAX_ORDER
 
@@ -84,6 +85,11 @@ class TransportModel:
             return NEUFELD_RANGE
         return tuple(self._table.t_star_range)
 
+    @property
+    def t_star_range_note(self) -> str | None:
+        """Why :attr:`t_star_range` stops short of the full table range, or None."""
+        return None if self.collision == "neufeld" else self._table.range_note
+
     # -- corrections ---------------------------------------------------------------------
     def _correction(self, which: str, T_star):
         if self.order == 1:
@@ -127,5 +133,6 @@ class TransportModel:
     def describe(self) -> dict:
         return {"potential": getattr(self.potential, "name", str(self.potential)),
                 "shape_parameters": dict(getattr(self.potential, "shape_parameters", {})),
+                "potential_record": potential_record(self.potential),
                 "sonine_order": self.order, "collision_integrals": self.collision,
                 "k_B": constants.k, "N_A": constants.N_A}
