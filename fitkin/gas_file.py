@@ -17,7 +17,8 @@ import numpy as np
 
 from .errors import FitkinError, GasError, InputError
 from .io.encoding import decode_text
-from .units import parse_quantity, parse_unit, to_si, ureg
+from .thermo.bounds import check_cp_table
+from .units import parse_quantity, parse_unit, same_unit, to_si, ureg
 
 __all__ = ["read_gas_file", "parse_gas_description", "GAS_FILE_KEYS"]
 
@@ -188,7 +189,7 @@ def _heat_capacity(data: dict, atoms: int | None, molar_mass: float, where: _Whe
     if molecule is not None and not has_modes and "degeneracies" in molecule:
         raise where.error("[molecule] degeneracies", "given without wavenumbers")
     if table is not None:
-        return _table(table, geometry, molar_mass, where)
+        return _table(table, geometry, n_atoms, molar_mass, where)
     if has_modes:
         if geometry is None:
             raise where.error("[molecule] geometry", "missing; say whether the molecule is \"linear\" or "
@@ -222,7 +223,7 @@ def _heat_capacity(data: dict, atoms: int | None, molar_mass: float, where: _Whe
     return None
 
 
-def _table(table: dict, geometry, molar_mass: float, where: _Where):
+def _table(table: dict, geometry, atoms: int | None, molar_mass: float, where: _Where):
     from .thermo import TabulatedHeatCapacity
     _check_keys(table, "heat_capacity", where)
     for key in ("temperature", "cp", "unit"):
@@ -238,12 +239,9 @@ def _table(table: dict, geometry, molar_mass: float, where: _Where):
     if not isinstance(unit_text, str):
         raise where.error("[heat_capacity] unit", f"must be text such as \"J/(mol K)\", found {_kind(unit_text)}")
     unit = _unit(unit_text, "[heat_capacity] unit", where)
-    molar = ureg.parse_units("J/(mol*K)")
-    specific = ureg.parse_units("J/(kg*K)")
-    if unit.dimensionality == molar.dimensionality:
-        values = to_si(cps, unit, "J/(mol*K)")
-    elif unit.dimensionality == specific.dimensionality:
-        values = to_si(cps, unit, "J/(kg*K)") * molar_mass
+    if unit.dimensionality in (ureg.parse_units("J/(mol*K)").dimensionality,
+                               ureg.parse_units("J/(kg*K)").dimensionality):
+        values = _molar_cp(cps, unit, molar_mass)
     else:
         raise where.error("[heat_capacity] unit", f"'{unit_text}' is not a heat-capacity unit; expected a molar "
                           "(J/(mol K), cal/(mol K)) or specific (J/(kg K), kJ/(kg K)) heat capacity")
@@ -251,9 +249,38 @@ def _table(table: dict, geometry, molar_mass: float, where: _Where):
     if not isinstance(source, str):
         raise where.error("[heat_capacity] source", f"must be text, found {_kind(source)}")
     try:
-        return TabulatedHeatCapacity(tuple(temps), tuple(values), geometry=geometry, source=source)
+        check_cp_table(temps, values, geometry, atoms=atoms, molar_mass=molar_mass,
+                       hint=_cp_unit_hint(cps, unit, unit_text, temps, geometry, atoms, molar_mass))
+        return TabulatedHeatCapacity(tuple(temps), tuple(values), geometry=geometry, source=source,
+                                     origin=f"{where.file} [heat_capacity]")
     except GasError as exc:
         raise where.error("[heat_capacity]", str(exc)) from None
+
+
+#: Heat-capacity units tried when a c_p⁰ table is implausible in the unit it states.
+_CP_UNITS = ("J/(mol K)", "kJ/(mol K)", "cal/(mol K)", "J/(kg K)", "kJ/(kg K)", "J/(g K)", "cal/(g K)")
+
+
+def _cp_unit_hint(cps, unit, unit_text: str, temps, geometry, atoms, molar_mass) -> str:
+    """'the values look like J/(kg K), not J/(mol K): write unit = "J/(kg K)"', or ''."""
+    for text in _CP_UNITS:
+        candidate = parse_unit(text)
+        if same_unit(candidate, unit):
+            continue
+        try:
+            values = _molar_cp(cps, candidate, molar_mass)
+            check_cp_table(temps, values, geometry, atoms=atoms, molar_mass=molar_mass)
+        except FitkinError:
+            continue
+        return f"the values look like {text}, not {unit_text}: write unit = \"{text}\""
+    return ""
+
+
+def _molar_cp(values, unit, molar_mass: float):
+    """Heat capacities in ``unit`` (molar or specific) as J/(mol K)."""
+    if unit.dimensionality == ureg.parse_units("J/(mol*K)").dimensionality:
+        return to_si(values, unit, "J/(mol*K)")
+    return to_si(values, unit, "J/(kg*K)") * molar_mass
 
 
 # -- small helpers --------------------------------------------------------------------------

@@ -5,7 +5,8 @@ import numpy as np
 import pytest
 from scipy import constants
 
-from fitkin.errors import GasError
+from fitkin.cli import main
+from fitkin.errors import GasError, OutOfRangeError
 from fitkin.gas_file import read_gas_file
 from fitkin.species import DEBYE, Gas
 from fitkin.thermo import MonatomicHeatCapacity, RigidRotorHarmonicOscillator, TabulatedHeatCapacity
@@ -171,3 +172,65 @@ def test_bad_gas_files(tmp_path, text, key, fragment):
 def test_missing_file_is_a_gas_error(tmp_path):
     with pytest.raises(GasError, match="not found"):
         read_gas_file(tmp_path / "nope.toml")
+
+
+# --- c_p⁰ tables: unit slips caught above and below, real hydrogen accepted, origin named ------
+def _cp_file(tmp_path, formula, T, cp, unit="J/(mol K)", name="gas.toml", extra=""):
+    body = (f'name = "{formula}"\nformula = "{formula}"\n{extra}[heat_capacity]\n'
+            f"temperature = {[float(t) for t in T]}\ncp = {[round(float(c), 4) for c in cp]}\nunit = \"{unit}\"\n")
+    return write(tmp_path, body, name)
+
+
+def _coolprop(prop, fluid, T):
+    CP = pytest.importorskip("CoolProp.CoolProp")
+    return [CP.PropsSI(prop, "T", t, "Dmolar", 1e-3, fluid) for t in T]
+
+
+def test_specific_table_under_a_molar_unit_is_refused_on_the_command_line(tmp_path, capsys):
+    T = [300.0, 500.0, 700.0, 1000.0]
+    # Source: CoolProp's ideal-gas c_p⁰ of nitrogen per kilogram (≈ 1040 J/(kg K) at 300 K)
+    gas = _cp_file(tmp_path, "N2", T, _coolprop("Cp0mass", "Nitrogen", T))
+    table = write(tmp_path, "T [K],viscosity [uPa s]\n300,17.9\n500,25.7\n700,32.1\n", "v.csv")
+    code = main(["fit", str(table), "--gas", str(gas), "--out", str(tmp_path / "o")])
+    err = capsys.readouterr().err
+    assert code == 2
+    assert "[heat_capacity]" in err and "more than a molecule of 2 atoms can hold" in err
+    assert 'the values look like J/(kg K), not J/(mol K): write unit = "J/(kg K)"' in err
+    # the same numbers with their unit are read, and agree with the molar values
+    right = read_gas_file(_cp_file(tmp_path, "N2", T, _coolprop("Cp0mass", "Nitrogen", T), unit="J/(kg K)",
+                                   name="right.toml"))
+    np.testing.assert_allclose(right.heat_capacity.cp(T), _coolprop("Cp0molar", "Nitrogen", T), rtol=1e-4)
+
+
+def test_molar_table_in_calories_named_as_joules_is_refused(tmp_path):
+    T = [300.0, 500.0]
+    cal = [c / 4.184 for c in _coolprop("Cp0molar", "CarbonDioxide", T)]
+    with pytest.raises(GasError, match='look like cal/\\(mol K\\), not J/\\(mol K\\): write unit = "cal/\\(mol K\\)"'):
+        read_gas_file(_cp_file(tmp_path, "CO2", T, cal))
+
+
+def test_real_hydrogen_is_fitted_not_refused(tmp_path, capsys):
+    # Source: CoolProp (Leachman et al. 2009, normal hydrogen): ideal-gas c_p⁰ 22.18 J/(mol K) at
+    # 93 K, below the classical (7/2) R because rotation is partly frozen (θ_rot ≈ 88 K); viscosity
+    # from CoolProp's correlation at 0.1 MPa
+    T = [20.0, 50.0, 93.0, 150.0, 200.0, 300.0, 500.0, 700.0, 1000.0]
+    gas = _cp_file(tmp_path, "H2", T, _coolprop("Cp0molar", "Hydrogen", T))
+    assert read_gas_file(gas).heat_capacity.cp(93.0) == pytest.approx(22.18, abs=0.01)
+    CP = pytest.importorskip("CoolProp.CoolProp")
+    rows = "".join(f"{t:.1f},{CP.PropsSI('V', 'T', t, 'P', 1e5, 'Hydrogen') * 1e6:.5f}\n"
+                   for t in np.linspace(100.0, 900.0, 9))
+    table = write(tmp_path, "T [K],viscosity [uPa s]\n" + rows, "h2.csv")
+    code = main(["fit", str(table), "--gas", str(gas), "--order", "1", "--no-report",
+                 "--out", str(tmp_path / "fit")])
+    out, err = capsys.readouterr()
+    assert code == 0, err
+    assert (tmp_path / "fit" / "parameters.json").is_file()
+
+
+def test_table_origin_is_the_gas_file_section(tmp_path):
+    p = _cp_file(tmp_path, "CO2", [300.0, 350.0, 400.0], [37.2, 39.4, 41.3])
+    hc = read_gas_file(p).heat_capacity
+    assert hc.origin == f"{p} [heat_capacity]"
+    with pytest.raises(OutOfRangeError, match=rf"{p.name} \[heat_capacity\] covers 300–400 K; the data span "
+                                              r"250–800 K"):
+        hc.check_covers([250.0, 800.0])

@@ -142,7 +142,8 @@ def test_table_without_geometry_has_no_split():
 
 @pytest.mark.parametrize("T, cp, geometry, fragment", [
     ((200.0, 300.0), (20.0, 21.0), None, "below \\(5/2\\) R"),
-    ((200.0, 300.0), (29.0, 29.1), "linear", "7/2"),
+    ((600.0, 700.0), (29.0, 29.1), "linear", "7/2"),
+    ((600.0, 700.0), (33.0, 34.0), "nonlinear", "4 R"),
     ((300.0, 200.0), (30.0, 31.0), None, "increase strictly"),
     ((200.0,), (30.0,), None, "two rows"),
     ((200.0, 300.0, 400.0), (30.0, 31.0), None, "2 heat capacities"),
@@ -194,3 +195,65 @@ def test_gas_round_trip_with_everything():
 def test_gas_rejects_implausible_dipole():
     with pytest.raises(GasError, match="debye"):
         Gas(name="x", molar_mass=0.018, dipole_moment=1.85)   # debye given as C m
+
+
+# --- plausibility bounds of a table (fitkin.thermo.bounds) ---------------------------------------
+HYDROGEN_T = (20.0, 50.0, 93.0, 150.0, 200.0, 300.0, 400.0, 500.0, 700.0, 1000.0)
+
+
+def test_real_hydrogen_table_is_accepted():
+    # Source: CoolProp's ideal-gas c_p⁰ of normal hydrogen (Leachman et al. 2009): 22.18 J/(mol K)
+    # at 93 K, (2.67 R: rotation partly frozen, θ_rot = 88 K), below (7/2) R up to about 380 K.
+    cp = _reference_cp("Hydrogen", HYDROGEN_T)
+    assert cp[2] == pytest.approx(22.18, abs=0.01) and cp[2] < 3.5 * R
+    table = TabulatedHeatCapacity(HYDROGEN_T, tuple(cp), geometry="linear")
+    assert float(table.cp(93.0)) == pytest.approx(cp[2], rel=1e-12)
+    # the rotational part is what the table holds where rotation is partly frozen, R above
+    assert float(table.rotational_cv(93.0)) == pytest.approx(cp[2] - 2.5 * R, rel=1e-9)
+    assert float(table.rotational_cv(1000.0)) == pytest.approx(R, rel=1e-12)
+    assert float(table.vibrational_cv(93.0)) == 0.0
+    assert float(table.vibrational_cv(1000.0)) == pytest.approx(cp[-1] - 3.5 * R, rel=1e-9)
+
+
+def test_below_the_translational_floor_is_a_unit_slip():
+    # hydrogen's c_p⁰ in cal/(mol K) given as J/(mol K): 6.9 < (5/2) R at every temperature
+    cal = tuple(_reference_cp("Hydrogen", HYDROGEN_T) / 4.184)
+    with pytest.raises(GasError, match=r"below \(5/2\) R .* translational .* is the unit right"):
+        TabulatedHeatCapacity(HYDROGEN_T, cal, geometry="linear")
+
+
+def test_below_the_rotational_floor_where_rotation_is_classical():
+    # (7/2) R minus 5 % at 600-800 K: no molecule's rotation is frozen there
+    with pytest.raises(GasError, match="rotation is fully excited"):
+        TabulatedHeatCapacity((600.0, 800.0), (0.95 * 3.5 * R, 0.95 * 3.5 * R), geometry="linear")
+    # the same values at 300-400 K are hydrogen-like and accepted
+    TabulatedHeatCapacity((300.0, 400.0), (0.99 * 3.5 * R, 3.5 * R), geometry="linear")
+
+
+def test_upper_bound_catches_specific_heat_capacities_under_a_molar_unit():
+    from fitkin.thermo.bounds import check_cp_table, cp_ceiling
+    T = np.array([300.0, 500.0, 1000.0])
+    # Source: CoolProp's ideal-gas c_p⁰ of nitrogen per kilogram, about 1040 J/(kg K) at 300 K
+    specific = np.array([CoolProp.PropsSI("Cp0mass", "T", t, "Dmolar", 1e-3, "Nitrogen") for t in T])
+    with pytest.raises(GasError, match="more than a molecule of 2 atoms can hold"):
+        check_cp_table(T, specific, "linear", atoms=2)
+    check_cp_table(T, _reference_cp("Nitrogen", T), "linear", atoms=2)       # the molar values pass
+    # every degree of freedom excited: (3N - 3/2) R with a 50 % margin; an atom (5/2) R
+    assert cp_ceiling(atoms=2) == pytest.approx(1.5 * 4.5 * R)
+    assert cp_ceiling(atoms=1) == pytest.approx(1.5 * 2.5 * R)
+    assert cp_ceiling() is None
+
+
+def test_coverage_names_origin_and_both_ranges():
+    table = TabulatedHeatCapacity((300.0, 350.0, 400.0), (29.1, 29.2, 29.3), geometry="linear",
+                                  origin="gas.toml [heat_capacity]")
+    assert table.temperature_range == (300.0, 400.0)
+    assert table.covers([300.0, 400.0]) and not table.covers([250.0, 300.0])
+    with pytest.raises(OutOfRangeError) as info:
+        table.check_covers([250.0, 300.0, 800.0])
+    assert str(info.value).startswith("gas.toml [heat_capacity] covers 300–400 K; the data span 250–800 K "
+                                      "(2 of 3 points outside)")
+    assert "extend the table" in str(info.value)
+    # the origin is not part of the table's identity
+    assert table == TabulatedHeatCapacity((300.0, 350.0, 400.0), (29.1, 29.2, 29.3), geometry="linear")
+    assert MonatomicHeatCapacity().covers([1.0, 1e5])

@@ -40,15 +40,17 @@ def resolve_internal(internal, gas: Gas, data: FitData):
     return resolve_internal_model(internal, gas, data.kinds)
 
 
-def check_heat_capacity_covers(gas: Gas, internal, data: FitData, where: str = "the gas's c_p⁰ table") -> None:
+def check_heat_capacity_covers(gas: Gas, internal, data: FitData, where: str | None = None) -> None:
     """Raise :class:`OutOfRangeError` naming both ranges when the model needs c_p⁰ (an
     internal-energy conductivity model) at temperatures its heat-capacity model does not cover.
 
-    ``where`` names the table in the message, e.g. "gas.toml [heat_capacity]".
+    ``where`` names the table in the message, e.g. "gas.toml [heat_capacity]" (default: the
+    model's own ``origin``, which a gas file sets to that).
     """
     hc = gas.heat_capacity
     if internal is None or internal.name == "monatomic" or hc is None:
         return
+    where = where or getattr(hc, "origin", None) or "the gas's c_p⁰ table"
     lo, hi = hc.temperature_range
     T = data.temperature
     outside = (T < lo * (1 - 1e-12)) | (T > hi * (1 + 1e-12))

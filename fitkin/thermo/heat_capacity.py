@@ -21,8 +21,10 @@ from dataclasses import dataclass, field
 
 import numpy as np
 from scipy import constants
+from scipy.interpolate import PchipInterpolator
 
 from ..errors import GasError, OutOfRangeError
+from .bounds import FLOOR_TOLERANCE, check_cp_table  # noqa: F401 - FLOOR_TOLERANCE kept importable here
 
 __all__ = [
     "R",
@@ -39,11 +41,6 @@ R = constants.R
 
 #: Molecular geometries fitkin knows: a single atom, a linear and a non-linear molecule.
 GEOMETRIES = ("monatomic", "linear", "nonlinear")
-
-#: Relative slack allowed below the physical floor of a tabulated c_p⁰ (5/2 R, or 7/2 R for a
-#: linear and 4 R for a non-linear molecule) so that a monatomic table rounded to four or five
-#: figures (20.78 J/(mol K) for 20.786) is not rejected.
-FLOOR_TOLERANCE = 1e-3
 
 
 def classical_rotational_cv(geometry: str) -> float:
@@ -109,10 +106,33 @@ class HeatCapacity:
         """Vibrational (all non-rotational internal) part of c_v⁰ in J/(mol K), shape of T."""
         return np.maximum(self.internal_cv(T) - self.rotational_cv(T), 0.0)
 
+    #: Where the model came from, for messages (e.g. "co2.toml [heat_capacity]").
+    origin = "the gas's heat-capacity model"
+
     @property
     def temperature_range(self) -> tuple[float, float]:
         """(T_min, T_max) in K where the model may be evaluated."""
         return (0.0, float("inf"))
+
+    def covers(self, T) -> bool:
+        """True when every temperature of ``T`` (K) lies inside :attr:`temperature_range`."""
+        t = np.asarray(T, dtype=float)
+        lo, hi = self.temperature_range
+        return bool(t.size == 0 or (np.all(t >= lo * (1 - 1e-12)) and np.all(t <= hi * (1 + 1e-12))))
+
+    def check_covers(self, T, what: str = "the data") -> None:
+        """Raise :class:`OutOfRangeError` naming both ranges and :attr:`origin` when the model
+        does not cover every temperature of ``T`` (K), e.g. "co2.toml [heat_capacity] covers
+        300–400 K; the data span 250–800 K (3 of 5 points outside); extend the table"."""
+        t = np.asarray(T, dtype=float).ravel()
+        if self.covers(t):
+            return
+        lo, hi = self.temperature_range
+        outside = int(np.sum((t < lo * (1 - 1e-12)) | (t > hi * (1 + 1e-12))))
+        noun = "point" if t.size == 1 else "points"
+        raise OutOfRangeError(f"{self.origin} covers {lo:g}–{hi:g} K; {what} span {t.min():g}–{t.max():g} K "
+                              f"({outside} of {t.size} {noun} outside); fitkin does not extrapolate c_p⁰: "
+                              "extend the table to cover them")
 
     def to_dict(self) -> dict:  # pragma: no cover - abstract
         raise NotImplementedError
@@ -148,10 +168,14 @@ class TabulatedHeatCapacity(HeatCapacity):
     Parameters
     ----------
     temperatures : (n,) K, strictly increasing, n ≥ 2.
-    cp_values : (n,) c_p⁰ in J/(mol K), none below (5/2) R (nor 7/2 R for a linear, 4 R for a
-        non-linear molecule) by more than :data:`FLOOR_TOLERANCE`.
+    cp_values : (n,) c_p⁰ in J/(mol K), none below (5/2) R by more than
+        :data:`~fitkin.thermo.bounds.FLOOR_TOLERANCE`, nor below (7/2) R (linear) or 4 R
+        (non-linear) above 500 K, where rotation is classical in every molecule
+        (:mod:`fitkin.thermo.bounds`; hydrogen's partly frozen rotation is allowed below).
     geometry : "monatomic", "linear", "nonlinear" or None (then no rotational split).
     source : where the table comes from (for the record).
+    origin : where the table was read, for messages (e.g. "co2.toml [heat_capacity]"); not
+        part of the table's identity.
 
     References
     ----------
@@ -167,6 +191,7 @@ class TabulatedHeatCapacity(HeatCapacity):
     cp_values: tuple
     geometry: str | None = None
     source: str = ""
+    origin: str = field(default="the gas's c_p⁰ table", compare=False)
     model = "table"
     _spline: object = field(default=None, init=False, repr=False, compare=False, hash=False)
 
@@ -188,17 +213,7 @@ class TabulatedHeatCapacity(HeatCapacity):
             raise GasError(f"c_p⁰ table: temperatures must increase strictly; {t[i + 1]:g} K follows {t[i]:g} K")
         if self.geometry is not None:
             classical_rotational_cv(self.geometry)  # validates the name
-        floor_cv = 1.5 * R + (0.0 if self.geometry is None else classical_rotational_cv(self.geometry))
-        floor = floor_cv + R
-        low = c < floor * (1.0 - FLOOR_TOLERANCE)
-        if np.any(low):
-            i = int(np.argmax(low))
-            what = {None: "(5/2) R, the translational minimum", "monatomic": "(5/2) R",
-                    "linear": "(7/2) R, the minimum of a linear molecule",
-                    "nonlinear": "4 R, the minimum of a non-linear molecule"}[self.geometry]
-            raise GasError(f"c_p⁰ table: {c[i]:.4g} J/(mol K) at {t[i]:g} K is below {what} = {floor:.4g} "
-                           "J/(mol K); is the unit right (J/(mol K), not kJ/(mol K), J/(kg K) or cal/(mol K))?")
-        from scipy.interpolate import PchipInterpolator
+        check_cp_table(t, c, self.geometry)
         object.__setattr__(self, "_spline", PchipInterpolator(t, c, extrapolate=False))
 
     @property
@@ -208,9 +223,7 @@ class TabulatedHeatCapacity(HeatCapacity):
     def cp(self, T) -> np.ndarray:
         t = _as_temperature(T)
         lo, hi = self.temperature_range
-        if np.any(t < lo * (1 - 1e-12)) or np.any(t > hi * (1 + 1e-12)):
-            raise OutOfRangeError(f"c_p⁰ table covers {lo:g} K to {hi:g} K; asked for {t.min():g} K to "
-                                  f"{t.max():g} K (fitkin does not extrapolate: extend the table in the gas file)")
+        self.check_covers(t, what="the temperatures asked for")
         return np.asarray(self._spline(np.clip(t, lo, hi)), dtype=float)
 
     def cv(self, T) -> np.ndarray:
@@ -218,6 +231,11 @@ class TabulatedHeatCapacity(HeatCapacity):
 
     def internal_cv(self, T) -> np.ndarray:
         return np.maximum(self.cv(T) - 1.5 * R, 0.0)
+
+    def rotational_cv(self, T) -> np.ndarray:
+        """The classical rigid-rotor value, or all of the internal part where that is smaller
+        (rotation partly frozen, as in hydrogen at low temperature)."""
+        return np.minimum(super().rotational_cv(T), self.internal_cv(T))
 
     def to_dict(self) -> dict:
         return {"model": self.model, "temperatures_K": list(self.temperatures),
