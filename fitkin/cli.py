@@ -103,6 +103,12 @@ def build_parser() -> argparse.ArgumentParser:
     poly.add_argument("--fit-internal", metavar="NAMES",
                       help="internal-transport parameters to fit: comma list (e.g. z_rot_inf,"
                            "rotational_diffusion_factor), 'all' or 'none'")
+    poly.add_argument("--conductivity-fit", choices=("joint", "two_stage", "plain"), default="joint",
+                      help="with conductivity and other data of a polyatomic gas: joint (default; started from σ, "
+                           "ε/k of the other data and the internal parameters fitted to k), two_stage (σ, ε/k from "
+                           "the other data only, then the internal parameters from k) or plain (one joint fit)")
+    poly.add_argument("--compare-conductivity", metavar="MODELS",
+                      help="also fit these conductivity models (comma list, or 'all') and show a comparison table")
     poly.add_argument("--no-polar", action="store_true",
                       help="do not apply the Stockmayer correction even though the gas has a dipole moment")
     samp = p.add_argument_group("posterior sampling")

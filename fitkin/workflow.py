@@ -20,7 +20,9 @@ from pathlib import Path
 from .errors import FitkinError, OutputExistsError
 from .inference.compare import PotentialChoice, comparison_rows, format_comparison, parse_potential_choice
 from .inference.fitdata import FitData
-from .inference.leastsq import check_heat_capacity_covers, fit_least_squares, resolve_internal
+from .inference.compare_internal import compare_conductivity_models, format_conductivity_comparison
+from .inference.leastsq import check_heat_capacity_covers, resolve_internal
+from .inference.staged import conductivity_record, fit_with_conductivity, summary_lines
 from .inference.sampling import sample_posterior
 from .io.parameter_file import write_parameter_file
 from .report import REPORT_NAME
@@ -40,6 +42,8 @@ class FitOptions:
     sample : None, or keyword arguments of :func:`fitkin.inference.sampling.sample_posterior`
         (priors, critical, likelihood, walkers, max_steps, seed, ...).
     report : write ``report.html``.   report_pressure : Pa, for the report's mean free path.
+    conductivity_fit : "joint", "two_stage" or "plain" (see :mod:`fitkin.inference.staged`).
+    compare_conductivity : internal-energy model names to compare on the same data (empty: none).
     """
 
     order: int = 3
@@ -49,6 +53,8 @@ class FitOptions:
     sample: dict | None = None
     report: bool = True
     report_pressure: float = 101325.0
+    conductivity_fit: str = "joint"
+    compare_conductivity: tuple = ()
 
 
 @dataclass(frozen=True)
@@ -99,8 +105,9 @@ def _slug(label: str) -> str:
 
 
 def _fit(data, gas, choice, opts: FitOptions):
-    return fit_least_squares(data, gas, choice.potential, free_shape=choice.free_shape, order=opts.order,
-                             collision=opts.collision, internal=opts.internal, polar=opts.polar)
+    return fit_with_conductivity(data, gas, choice.potential, free_shape=choice.free_shape, order=opts.order,
+                                 collision=opts.collision, internal=opts.internal, polar=opts.polar,
+                                 mode=opts.conductivity_fit)
 
 
 def _sample(data, gas, choice, opts: FitOptions, result):
@@ -175,6 +182,15 @@ def run_fit_job(tables, gas, *, potentials="lj", options: FitOptions | None = No
         extra["comparison"] = rows
         texts.append("Potential shapes compared on the same data (lowest BIC preferred):\n"
                      + format_comparison(rows))
+    texts += ["\n".join(summary_lines(results[0]))] if summary_lines(results[0]) else []
+    if conductivity_record(results[0]):
+        extra["conductivity_fit"] = conductivity_record(results[0])
+    if opts.compare_conductivity:
+        extra["conductivity_comparison"] = compare_conductivity_models(
+            data, gas, choices[0].potential, opts.compare_conductivity, free_shape=choices[0].free_shape,
+            order=opts.order, collision=opts.collision, polar=opts.polar)
+        texts.append("Conductivity models compared on the same data (each fitted jointly):\n"
+                     + format_conductivity_comparison(extra["conductivity_comparison"]))
     post = _sample(data, gas, choices[0], opts, results[0]) if opts.sample else None
     if post is not None:
         texts.append("\n".join(post.summary_lines()))

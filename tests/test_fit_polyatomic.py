@@ -67,7 +67,12 @@ def test_internal_parameters_have_uncertainties_and_are_recorded():
     assert z.vary and np.isfinite(z.stderr) and z.stderr > 0
     # Z_rot at high temperature of N2 is of order 10-25 (common practice; Parker 1959 form)
     assert 3 < z.value < 60
-    assert res.model_settings["internal_energy"]["model"] == "mason_monchick"
+    # the default model: rotation and vibration as separate channels; for N₂ (rotation
+    # carries most of c_int) Z_rot^∞ and the rotational diffusion factor are free
+    internal = res.model_settings["internal_energy"]
+    assert internal["model"] == "rotation_vibration"
+    assert internal["fitted"][:2] == ["z_rot_inf", "rotational_diffusion_factor"]
+    assert "z_vib" in internal["fixed"]
 
 
 def test_polyatomic_gas_without_heat_capacity_cannot_fit_conductivity():

@@ -194,8 +194,10 @@ def test_translational_conductivity_is_used_when_given():
         model = InternalEnergyTransport(name)
         base = model.conductivity(T, mu, 1.32 * mu, M, hc, 98.94)
         scaled = model.conductivity(T, mu, 1.32 * mu, M, hc, 98.94, translational_conductivity=1.01 * k_first)
-        if name == "mason_monchick":
-            f_tr = pa.mason_monchick_factors(R, 1.32, pa.rotational_collision_number(T, 98.94, 20.0))[0]
+        if name in ("mason_monchick", "rotation_vibration", "rotation_vibration_constant_z"):
+            z = 5.0 if name.endswith("constant_z") else pa.rotational_collision_number(T, 98.94, 20.0)
+            f_tr = pa.relaxing_mode_factors([R, hc.vibrational_cv(T)], [1.32, 1.32], [z, 1.0e4])[0] \
+                if name.startswith("rotation") else pa.mason_monchick_factors(R, 1.32, z)[0]
             assert float(scaled - base) == pytest.approx(0.01 * k_first * f_tr / 2.5, rel=1e-9)
         else:
             assert float(scaled - base) == pytest.approx(0.01 * k_first, rel=1e-9), name

@@ -71,7 +71,7 @@ def test_parameter_file_holds_the_fitted_internal_values_and_reloads_them(tmp_pa
     assert code == 0, err
     record = json.loads((out_dir / "parameters.json").read_text(encoding="utf-8"))
     internal = record["theory"]["internal_energy"]
-    assert internal["model"] == "mason_monchick"
+    assert internal["model"] == "rotation_vibration"
     assert internal["fitted"] == ["z_rot_inf", "vibrational_diffusion_factor"]
     for name in internal["fitted"]:
         assert internal["values"][name] == pytest.approx(record["parameters"][name]["value"], rel=1e-12)
@@ -85,3 +85,41 @@ def test_parameter_file_holds_the_fitted_internal_values_and_reloads_them(tmp_pa
     # a program that builds the model from "values" alone (not from the parameters) agrees too
     rebuilt = InternalEnergyTransport(internal["model"], free=(), fixed=internal["values"])
     assert rebuilt.defaults == internal["values"]
+
+
+def test_two_stage_mode_keeps_the_potential_of_the_viscosity_fit(tmp_path, capsys):
+    gas, visc, cond = write_co2(tmp_path)
+    code, out, err = run(capsys, "fit", visc, "--gas", gas, "--out", tmp_path / "mu", "--no-report")
+    assert code == 0, err
+    mu_only = json.loads((tmp_path / "mu" / "parameters.json").read_text(encoding="utf-8"))["parameters"]
+    code, out, err = run(capsys, "fit", visc, cond, "--gas", gas, "--out", tmp_path / "two", "--no-report",
+                         "--conductivity-fit", "two_stage")
+    assert code == 0, err
+    assert "Conductivity fit: two-stage" in out and "standard errors of the fit without conductivity" in out
+    record = json.loads((tmp_path / "two" / "parameters.json").read_text(encoding="utf-8"))
+    assert record["conductivity_fit"]["conductivity_fit_mode"] == "two_stage"
+    for name in ("sigma", "epsilon_over_k"):  # stage 1 is the viscosity-only fit, with its uncertainty
+        assert record["parameters"][name]["value"] == pytest.approx(mu_only[name]["value"], rel=1e-6)
+        assert record["parameters"][name]["stderr"] == pytest.approx(mu_only[name]["stderr"], rel=1e-3)
+    assert "vibrational_diffusion_factor" in record["parameters"]
+    # the joint fit (default) stays within 2 standard errors of it for CO₂ (its diagnostic says so)
+    check = record["conductivity_fit"]["conductivity_consistency"]
+    assert abs(check["epsilon_over_k"]["shift_in_stderr"]) < 2 and not check["flagged"]
+
+
+def test_conductivity_model_comparison_table(tmp_path, capsys):
+    gas, visc, cond = write_co2(tmp_path)
+    code, out, err = run(capsys, "fit", visc, cond, "--gas", gas, "--out", tmp_path / "cmp", "--no-report",
+                         "--compare-conductivity", "eucken,mason_monchick,rotation_vibration")
+    assert code == 0, err
+    assert "Conductivity models compared" in out and "ΔBIC" in out and "Δε/u" in out
+    rows = json.loads((tmp_path / "cmp" / "parameters.json").read_text(encoding="utf-8"))["conductivity_comparison"]
+    assert [r["model"] for r in rows] == ["eucken", "mason_monchick", "rotation_vibration"]
+    by = {r["model"]: r for r in rows}
+    # plain Eucken misses CO₂'s conductivity by more than 10 % (common practice: Eucken's f_int = 1
+    # is too high for CO₂); the rotation/vibration split fits it within the 2 % uncertainty
+    assert by["eucken"]["k_max_percent"] > 10 and by["rotation_vibration"]["k_max_percent"] < 2
+    assert by["rotation_vibration"]["delta_bic"] < 2.0 < by["eucken"]["delta_bic"]
+    code, _, err = run(capsys, "fit", visc, cond, "--gas", gas, "--out", tmp_path / "bad", "--no-report",
+                       "--compare-conductivity", "eucken,nonsense")
+    assert code == 2 and "nonsense" in err and "Traceback" not in err

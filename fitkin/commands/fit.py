@@ -5,6 +5,7 @@ import sys
 from dataclasses import replace
 
 from ..errors import FitkinError
+from ..inference.compare_internal import parse_conductivity_models
 from ..inference.corresponding_states import parse_critical_constants
 from ..inference.likelihood import parse_calibration
 from ..inference.model import AutomaticInternalModel
@@ -41,7 +42,7 @@ def _internal_from_args(args):
     if name not in INTERNAL_MODELS:
         raise FitkinError(f"unknown --conductivity-model '{name}'; choose from {', '.join(INTERNAL_MODELS)}")
     if args.fit_internal is None:
-        return InternalEnergyTransport(name)
+        return name  # the free set follows from what the conductivity data can determine
     spec = args.fit_internal.strip()
     probe = InternalEnergyTransport(name, free=())
     free = () if spec in ("", "none") else (probe.all_parameter_names if spec == "all"
@@ -75,7 +76,9 @@ def options_from_args(args) -> FitOptions:
     """The FitOptions of the parsed ``fitkin fit`` arguments."""
     return FitOptions(order=args.order, collision=args.collision, internal=_internal_from_args(args),
                       polar=False if args.no_polar else None, sample=_sampling_from_args(args),
-                      report=not args.no_report,
+                      report=not args.no_report, conductivity_fit=getattr(args, "conductivity_fit", "joint"),
+                      compare_conductivity=parse_conductivity_models(args.compare_conductivity)
+                      if getattr(args, "compare_conductivity", None) else (),
                       report_pressure=parse_quantity(args.report_pressure, "Pa", name="--report-pressure"))
 
 

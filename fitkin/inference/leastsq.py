@@ -37,7 +37,7 @@ NARROW_RANGE_RATIO = 1.5
 def resolve_internal(internal, gas: Gas, data: FitData):
     """The internal-energy model to fit with: see :func:`fit_least_squares` and
     :func:`~fitkin.inference.model.resolve_internal_model`."""
-    return resolve_internal_model(internal, gas, data.kinds)
+    return resolve_internal_model(internal, gas, data)
 
 
 def check_heat_capacity_covers(gas: Gas, internal, data: FitData, where: str | None = None) -> None:
@@ -99,7 +99,7 @@ def _start(model: ForwardModel, data: FitData):
 
 def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(), order: int = 3,
                       collision: str = "computed", fixed: dict | None = None, internal="auto",
-                      polar: bool | None = None) -> FitResult:
+                      polar: bool | None = None, start: dict | None = None) -> FitResult:
     """Fit σ, ε/k (and any ``free_shape`` parameters) to ``data``.
 
     Parameters
@@ -116,6 +116,9 @@ def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(),
         (translational only) or "auto" (see :func:`~fitkin.inference.model.default_internal_model`).
         Its free parameters are fitted with σ and ε/k.
     polar : Stockmayer correction for the dipole moment (default: when the gas has one).
+    start : optional starting values {"sigma": Å, "epsilon_over_k": K, shape and internal
+        parameters} instead of the grid search (e.g. from an earlier fit of part of the data,
+        see :mod:`fitkin.inference.staged`).
 
     Returns
     -------
@@ -139,7 +142,11 @@ def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(),
         raise FitError(f"{len(data)} point{'' if len(data) == 1 else 's'} cannot determine {n_free} parameters; "
                        "give more points")
 
-    sig0, eps0, _, shape0 = _start(model, data)
+    if start is None:
+        sig0, eps0, _, shape0 = _start(model, data)
+    else:
+        sig0, eps0 = float(start["sigma"]), float(start["epsilon_over_k"])
+        shape0 = {n: float(start[n]) for n in model.free_shape}
     eps_lo, eps_hi = epsilon_bounds(data, model.transport(shape0 or None).t_star_range)
     params = lmfit.Parameters()
     params.add("sigma", value=fixed.get("sigma", sig0), min=SIGMA_BOUNDS_ANGSTROM[0],
@@ -151,7 +158,8 @@ def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(),
         params.add(name, value=shape0[name], min=lo, max=hi)
     for name in model.internal_names:
         lo, hi = model.internal.bounds[name]
-        params.add(name, value=model.internal.defaults[name], min=lo, max=hi)
+        first = (start or {}).get(name, model.internal.defaults[name])
+        params.add(name, value=min(max(float(first), lo), hi), min=lo, max=hi)
 
     try:
         out = lmfit.minimize(_residual_function(model, data), params, method="least_squares",

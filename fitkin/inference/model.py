@@ -80,14 +80,17 @@ def is_monatomic(gas: Gas) -> bool:
     return gas.atom_count == 1 or isinstance(gas.heat_capacity, MonatomicHeatCapacity)
 
 
-def default_internal_model(gas: Gas, fits_conductivity: bool) -> InternalEnergyTransport | None:
+def default_internal_model(gas: Gas, fits_conductivity: bool, temperatures=None) -> InternalEnergyTransport | None:
     """The conductivity model fitkin uses when the user names none.
 
-    None (translational Chapman–Enskog only) for a monatomic gas; Mason–Monchick (1962) when
-    the heat capacity splits into rotation and vibration; internal energy diffusing like mass
-    (f_int = ρD/μ) for a tabulated c_p⁰ without geometry. Without conductivity data
-    (``fits_conductivity`` false) no internal parameter is free: nothing would determine it. A polyatomic gas without heat
-    capacity cannot have its conductivity fitted: a FitError says what to add.
+    None (translational Chapman–Enskog only) for a monatomic gas; rotation and vibration as
+    separate channels (:class:`~fitkin.theory.internal.RotationVibration`) when the heat
+    capacity splits into rotation and vibration, with the parameters free that conductivity
+    data at ``temperatures`` (K) can determine (see its ``determinable``); internal energy
+    diffusing like mass (f_int = ρD/μ) for a tabulated c_p⁰ without geometry. Without
+    conductivity data (``fits_conductivity`` false) no internal parameter is free: nothing
+    would determine it. A polyatomic gas without heat capacity cannot have its conductivity
+    fitted: a FitError says what to add.
     """
     if is_monatomic(gas):
         return None
@@ -98,11 +101,20 @@ def default_internal_model(gas: Gas, fits_conductivity: bool) -> InternalEnergyT
                            "file with a [heat_capacity] table or [molecule] data (--gas FILE, see "
                            "docs/gas-file.md), or fit viscosity only (--property viscosity)")
         return None
-    # without conductivity data nothing constrains an internal-transport parameter: none is free
-    # (the model is kept, with its defaults, so the saved fit can still predict k)
     if gas.heat_capacity.has_rotational_split:
-        return InternalEnergyTransport("mason_monchick", free=None if fits_conductivity else ())
+        return _named_model("rotation_vibration", gas, fits_conductivity, temperatures)
     return InternalEnergyTransport("eucken_diffusion", free=())
+
+
+def _named_model(name: str, gas: Gas, fits_conductivity: bool, temperatures) -> InternalEnergyTransport:
+    """Model ``name`` with the free set the data can determine (none without conductivity)."""
+    model = InternalEnergyTransport(name)
+    if not fits_conductivity:
+        return model.with_free(())
+    if temperatures is None or len(temperatures) == 0 or gas.heat_capacity is None \
+            or (model.needs_rotational_split and not gas.heat_capacity.has_rotational_split):
+        return model
+    return model.with_free(model.determinable(gas.heat_capacity, temperatures))
 
 
 @dataclass(frozen=True)
@@ -116,29 +128,30 @@ class AutomaticInternalModel:
     free: tuple | str = ()
 
 
-def resolve_internal_model(internal, gas: Gas, kinds) -> InternalEnergyTransport | None:
-    """The internal-energy model a fit of the property ``kinds`` uses.
+def resolve_internal_model(internal, gas: Gas, data: FitData) -> InternalEnergyTransport | None:
+    """The internal-energy model a fit of ``data`` uses.
 
-    ``internal`` is "auto", an :class:`AutomaticInternalModel`, a model name, a model or None.
-    Without conductivity among ``kinds`` no internal parameter is free (nothing in μ, D or B
-    determines one); the model is kept with its fixed values so that the fit can predict k.
+    ``internal`` is "auto", an :class:`AutomaticInternalModel`, a model name (its free set is
+    what the conductivity points can determine), a model (its free set as given) or None.
+    Without conductivity data no internal parameter is free (nothing in μ, D or B determines
+    one); the model is kept with its fixed values so that the fit can predict k.
     """
-    fits_k = "conductivity" in tuple(kinds)
+    fits_k = "conductivity" in data.kinds
+    T = data.temperature[data.mask("conductivity")] if fits_k else None
     if isinstance(internal, str) and internal == "auto":
-        return default_internal_model(gas, fits_k)
+        return default_internal_model(gas, fits_k, T)
     if isinstance(internal, AutomaticInternalModel):
-        chosen = default_internal_model(gas, fits_k)
+        chosen = default_internal_model(gas, fits_k, T)
         if chosen is None:
             if internal.free:
                 raise FitError(f"'{gas.name}' has no internal-energy conductivity model to fit (a monatomic gas, "
                                "or no heat capacity is known): leave out --fit-internal")
             return None
-        free = chosen.all_parameter_names if internal.free == "all" else tuple(internal.free)
-        internal = InternalEnergyTransport(chosen.name, free=free, fixed=chosen.fixed)
+        internal = chosen.with_free(chosen.all_parameter_names if internal.free == "all" else tuple(internal.free))
     elif isinstance(internal, str):
-        internal = InternalEnergyTransport(internal)
+        internal = _named_model(internal, gas, fits_k, T)
     if internal is not None and not fits_k and internal.parameter_names:
-        internal = InternalEnergyTransport(internal.name, free=(), fixed=internal.fixed)
+        internal = internal.with_free(())
     return internal
 
 

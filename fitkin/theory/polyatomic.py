@@ -35,6 +35,7 @@ __all__ = [
     "z_rot_inf_from_reference",
     "mason_monchick_factors",
     "mason_monchick_conductivity",
+    "relaxing_mode_factors",
     "eucken_factor",
 ]
 
@@ -261,6 +262,53 @@ def mason_monchick_conductivity(viscosity, molar_mass, rotational_cv, vibrationa
     f_tr, f_rot, f_vib = mason_monchick_factors(rotational_cv, rho_D_over_mu, z_rot, vibrational_rho_D_over_mu)
     k_tr = _translational_term(mu, molar_mass, translational_conductivity) * (f_tr / 2.5)
     return k_tr + mu / molar_mass * (f_rot * np.asarray(rotational_cv) + f_vib * np.asarray(vibrational_cv))
+
+
+def relaxing_mode_factors(mode_cv, rho_D_over_mu, z):
+    r"""Eucken factors of internal modes that each exchange energy with translation.
+
+    Every mode i (heat capacity c_i, energy diffusion ρD_i/μ = x_i, collision number Z_i)
+    takes the one-mode Mason–Monchick form of :func:`mason_monchick_factors`:
+
+    .. math::
+        A_i = \frac52 - x_i,\quad B_i = Z_i + \frac{2}{π}\left(\frac53\frac{c_i}{R} + x_i\right),\quad
+        f_i = x_i\left(1 + \frac{2}{π}\frac{A_i}{B_i}\right),\quad
+        f_{tr} = \frac52\left(1 - \frac{2}{π}\sum_i \frac{c_i}{c_{tr}}\frac{A_i}{B_i}\right)
+
+    Modes are treated as independent (no exchange between internal modes); for Z_i ≫ 1 each
+    mode's correction to k tends to Mason & Monchick's first-order −(2/π)(μ/M) c_i A_i²/Z_i.
+
+    Parameters
+    ----------
+    mode_cv : sequence of array_like, J/(mol K), one per mode.
+    rho_D_over_mu : sequence of array_like, x_i per mode.   z : sequence of array_like, Z_i (> 0).
+
+    Returns
+    -------
+    (f_tr, [f_i ...]) broadcast arrays.
+
+    References
+    ----------
+    E. A. Mason & L. Monchick, J. Chem. Phys. 36, 1622 (1962) (one relaxing mode; several
+    modes to first order in 1/Z).
+
+    One mode reproduces :func:`mason_monchick_factors`:
+
+    >>> ftr, (frot,) = relaxing_mode_factors([constants.R], [1.32], [4.0])
+    >>> [round(float(v), 6) for v in mason_monchick_factors(constants.R, 1.32, 4.0)[:2]] == \
+    ...     [round(float(ftr), 6), round(float(frot), 6)]
+    True
+    """
+    f_tr = 2.5
+    factors = []
+    for c, x, zi in zip(mode_cv, rho_D_over_mu, z):
+        c, x, zi = (np.asarray(v, dtype=float) for v in (c, x, zi))
+        if np.any(~(zi > 0)):
+            raise FitkinError("collision numbers must be positive")
+        ratio = 2.0 / np.pi * (2.5 - x) / (zi + 2.0 / np.pi * (5.0 / 3.0 * c / _R + x))
+        f_tr = f_tr - 2.5 * ratio * c / _C_TR
+        factors.append(x * (1.0 + ratio))
+    return f_tr, factors
 
 
 def eucken_factor(k, mu, molar_mass, cv):

@@ -1,0 +1,197 @@
+"""Conductivity of a polyatomic gas fitted beside the properties that fix the potential.
+
+σ, ε/k and the shape are set by viscosity, self-diffusion and B(T); the thermal conductivity
+of a polyatomic gas adds internal-energy transport whose model is approximate. Fitted
+jointly, a conductivity mismatch can be absorbed by ε/k instead of by the internal-energy
+parameters. This module fits in stages (see :func:`fit_with_conductivity`):
+
+1. σ, ε/k (and shape) from every kind except conductivity (the "potential fit");
+2. the free internal-energy parameters from the conductivity alone, σ, ε/k and shape fixed
+   at stage 1 (a two-stage result);
+3. optionally the full joint fit, started from stages 1 and 2, so the optimiser stays in the
+   basin the potential data choose.
+
+Both results carry ``extra["conductivity_consistency"]``: how far the joint fit moved σ and
+ε/k in standard errors of the potential fit, and a plain-language verdict. A two-stage result
+holds σ and ε/k with the potential fit's standard errors, the internal parameters with those
+of stage 2 (block-diagonal covariance: the uncertainty of σ, ε/k is not propagated into the
+internal parameters), and χ² over all points.
+"""
+from __future__ import annotations
+
+from dataclasses import replace
+
+import numpy as np
+
+from ..errors import FitError
+from ..species import Gas
+from .fitdata import FitData
+from .leastsq import diagnose, fit_least_squares, resolve_internal
+from .model import ForwardModel, with_shape
+from .result import FitResult
+
+__all__ = ["FIT_MODES", "fit_with_conductivity", "consistency", "subset", "SHIFT_WARNING", "conductivity_record",
+           "summary_lines"]
+
+#: How conductivity data are combined with the rest: "joint" (started from the stages),
+#: "two_stage", or "plain" (one joint fit from the grid start, as for a monatomic gas).
+FIT_MODES = ("joint", "two_stage", "plain")
+#: A shift of ε/k or σ beyond this many standard errors of the potential fit is flagged.
+SHIFT_WARNING = 2.0
+
+
+def subset(data: FitData, mask) -> FitData:
+    """The points of ``data`` where ``mask`` is true."""
+    mask = np.asarray(mask, dtype=bool)
+    return replace(data, **{f: getattr(data, f)[mask] for f in
+                            ("kind", "temperature", "value", "uncertainty", "pressure", "source", "rows", "file")})
+
+
+def _needs_stages(data: FitData, internal) -> bool:
+    kinds = set(data.kinds)
+    return "conductivity" in kinds and len(kinds) > 1 and internal is not None and bool(internal.parameter_names)
+
+
+def consistency(potential_fit: FitResult, result: FitResult) -> dict:
+    """How far ``result`` moved σ and ε/k from ``potential_fit``, in its standard errors and %.
+
+    Returns {"sigma": {...}, "epsilon_over_k": {...}, "message": str, "flagged": bool}; each
+    entry has "before", "after", "stderr_before", "shift_in_stderr", "shift_percent".
+    """
+    out = {}
+    for n in ("sigma", "epsilon_over_k"):
+        a, b = potential_fit.parameters[n], result.parameters[n]
+        se = a.stderr if (np.isfinite(a.stderr) and a.stderr > 0) else float("nan")
+        out[n] = {"before": a.value, "after": b.value, "stderr_before": se,
+                  "shift_in_stderr": (b.value - a.value) / se, "shift_percent": 100.0 * (b.value / a.value - 1.0)}
+    n_eps = out["epsilon_over_k"]["shift_in_stderr"]
+    n_sig = out["sigma"]["shift_in_stderr"]
+    worst = max(abs(n_eps), abs(n_sig)) if np.isfinite(n_eps) and np.isfinite(n_sig) else float("nan")
+    flagged = bool(np.isfinite(worst) and worst > SHIFT_WARNING)
+    text = (f"adding conductivity moved ε/k by {n_eps:+.1f} and σ by {n_sig:+.1f} standard errors of the fit "
+            f"without conductivity ({out['epsilon_over_k']['shift_percent']:+.1f} %, "
+            f"{out['sigma']['shift_percent']:+.1f} %)")
+    if flagged:
+        text += (": the potential, not the internal-energy model, is absorbing a conductivity mismatch; "
+                 "prefer the two-stage result (--conductivity-fit two_stage) or compare conductivity models "
+                 "(--compare-conductivity)")
+    elif np.isfinite(worst):
+        text += ": consistent; the internal-energy model, not the potential, takes up the conductivity"
+    out.update(message=text, flagged=flagged)
+    return out
+
+
+def _stage_potential(data, gas, potential, free_shape, kw):
+    rest = subset(data, data.kind != "conductivity")
+    return fit_least_squares(rest, gas, potential, free_shape=free_shape, internal="auto", **kw)
+
+
+def _stage_internal(data, gas, potential, free_shape, internal, first: FitResult, kw):
+    cond = subset(data, data.kind == "conductivity")
+    shape = {n: first.value(n) for n in free_shape}
+    fixed = {"sigma": first.value("sigma"), "epsilon_over_k": first.value("epsilon_over_k")}
+    if len(cond) <= len(internal.parameter_names):
+        raise FitError(f"{len(cond)} conductivity points cannot determine {len(internal.parameter_names)} "
+                       "internal-energy parameters; give more points or fix some (--fit-internal)")
+    return fit_least_squares(cond, gas, with_shape(potential, **shape), order=kw["order"],
+                             collision=kw["collision"], polar=kw["polar"], internal=internal, fixed=fixed,
+                             start={**fixed})
+
+
+def _two_stage_result(data, gas, potential, free_shape, internal, first, second, kw) -> FitResult:
+    theta = {**first.theta(), **{n: second.value(n) for n in internal.parameter_names}}
+    model = ForwardModel(gas=gas, potential=potential, free_shape=tuple(free_shape), order=kw["order"],
+                         collision=kw["collision"], internal=internal,
+                         polar=gas.is_polar if kw["polar"] is None else bool(kw["polar"]))
+    prediction = model.predict(theta, data)
+    names = tuple(first.names) + tuple(n for n in second.names if n in internal.parameter_names)
+    q1 = len(first.names)
+    cov = np.zeros((len(names), len(names)))
+    cov[:q1, :q1] = first.covariance
+    idx = [list(second.names).index(n) for n in names[q1:]]
+    cov[q1:, q1:] = np.asarray(second.covariance)[np.ix_(idx, idx)]
+    params = {**first.parameters, **{n: second.parameters[n] for n in internal.parameter_names}}
+    chi2 = float(np.sum(((prediction - data.value) / data.sigma_y) ** 2))
+    bounds = {**first.extra.get("bounds", {}),
+              **{n: b for n, b in second.extra.get("bounds", {}).items() if n in internal.parameter_names}}
+    settings = {**first.model_settings, **model.describe(theta)}
+    result = FitResult(gas=gas, model_settings=settings, parameters=params, names=names, covariance=cov,
+                       chi2=chi2, dof=len(data) - len(names), weighted=data.weighted,
+                       success=first.success and second.success, message=f"{first.message}; {second.message}",
+                       evaluations=first.evaluations + second.evaluations, prediction=prediction, data=data,
+                       extra={"start": first.extra.get("start", {}), "bounds": bounds})
+    return replace(result, warnings=tuple(diagnose(result)))
+
+
+def fit_with_conductivity(data: FitData, gas: Gas, potential=None, *, free_shape=(), order: int = 3,
+                          collision: str = "computed", internal="auto", polar: bool | None = None,
+                          mode: str = "joint") -> FitResult:
+    """Fit σ, ε/k (shape) and the internal-energy parameters to data that include conductivity.
+
+    Parameters
+    ----------
+    data, gas, potential, free_shape, order, collision, internal, polar : as for
+        :func:`fitkin.inference.leastsq.fit_least_squares`.
+    mode : one of :data:`FIT_MODES`. Without conductivity, without other kinds, or without
+        free internal parameters, every mode is one ordinary fit.
+
+    Returns
+    -------
+    FitResult; for the staged modes ``extra["conductivity_consistency"]`` (see
+    :func:`consistency`, comparing the joint fit with the potential fit; the two-stage
+    result has both), ``extra["conductivity_fit_mode"]`` and ``extra["stages"]`` (the
+    σ, ε/k of the potential fit and the internal values of the two-stage fit).
+    """
+    if mode not in FIT_MODES:
+        raise FitError(f"unknown conductivity fit mode '{mode}'; expected one of {', '.join(FIT_MODES)}")
+    kw = {"order": order, "collision": collision, "polar": polar}
+    model = resolve_internal(internal, gas, data)
+    if mode == "plain" or not _needs_stages(data, model):
+        return fit_least_squares(data, gas, potential, free_shape=free_shape, internal=model, **kw)
+    first = _stage_potential(data, gas, potential, free_shape, kw)
+    second = _stage_internal(data, gas, potential, free_shape, model, first, kw)
+    stages = {"potential_fit": {n: [p.value, p.stderr] for n, p in first.parameters.items() if p.vary},
+              "internal_fit": {n: [second.value(n), second.stderr(n)] for n in model.parameter_names}}
+    two = _two_stage_result(data, gas, potential, free_shape, model, first, second, kw)
+    start = {**first.theta(), **{n: second.value(n) for n in model.parameter_names}}
+    joint = fit_least_squares(data, gas, potential, free_shape=free_shape, internal=model, start=start, **kw)
+    check = consistency(first, joint)
+    extra = {"conductivity_consistency": check, "stages": stages}
+    if mode == "joint":
+        chosen = joint
+        extra["alternative"] = {"mode": "two_stage", "reduced_chi2": two.reduced_chi2}
+    else:
+        chosen = two
+        extra["alternative"] = {"mode": "joint", "reduced_chi2": joint.reduced_chi2,
+                                "parameters": {n: [p.value, p.stderr] for n, p in joint.parameters.items()
+                                               if p.vary}}
+    warnings = list(chosen.warnings) + ([check["message"]] if check["flagged"] and mode == "joint" else [])
+    return replace(chosen, warnings=tuple(warnings),
+                   extra={**chosen.extra, **extra, "conductivity_fit_mode": mode})
+
+
+def conductivity_record(result: FitResult) -> dict | None:
+    """What a staged fit adds to the parameter file (None for an ordinary fit): the mode,
+    the consistency check, the stages and the other mode's χ²/ν."""
+    if "conductivity_consistency" not in result.extra:
+        return None
+    return {k: result.extra[k] for k in ("conductivity_fit_mode", "conductivity_consistency", "stages",
+                                          "alternative") if k in result.extra}
+
+
+def summary_lines(result: FitResult) -> list[str]:
+    """Terminal lines about a staged fit: mode, the consistency check, the other mode."""
+    rec = conductivity_record(result)
+    if rec is None:
+        return []
+    mode = rec["conductivity_fit_mode"]
+    alt = rec.get("alternative", {})
+    lines = [f"Conductivity fit: {mode.replace('_', '-')} (σ, ε/k from the other properties first, then the "
+             f"internal-energy parameters from k); the {alt.get('mode', '').replace('_', '-')} fit has "
+             f"χ²/ν = {alt.get('reduced_chi2', float('nan')):.3g}",
+             "  " + rec["conductivity_consistency"]["message"]]
+    internal = result.model_settings.get("internal_energy") or {}
+    if internal.get("fixed"):
+        lines.append(f"  internal-energy parameters fixed (not determined by these data): "
+                     + ", ".join(f"{n} = {internal['values'][n]:g}" for n in internal["fixed"]))
+    return lines
