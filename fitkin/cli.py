@@ -25,7 +25,7 @@ _EPILOG_CHECK = """examples:
 """
 _EPILOG_FIT = """examples:
   fitkin fit argon_visc.csv --formula Ar --out fit-argon
-  fitkin fit visc.csv cond.csv --molar-mass "83.798 g/mol" --name krypton --out fit-kr
+  fitkin fit visc.csv cond.csv --molar-mass "83.798 g/mol" --monatomic --name krypton --out fit-kr
   fitkin fit visc.csv --formula Ar --property viscosity --order 2 --out fit2 --force
   fitkin fit visc.csv --formula Ar --potential lj,mie,exp6 --out compare
   fitkin fit visc.csv cond.csv --gas co2.toml --out fit-co2
@@ -80,6 +80,9 @@ def build_parser() -> argparse.ArgumentParser:
     gas.add_argument("--gas", metavar="FILE", help="gas description file (TOML; heat capacity, dipole moment, "
                                                    "critical constants; see docs/gas-file.md)")
     p.add_argument("--name", help="name of the gas in outputs (default: the formula)")
+    p.add_argument("--monatomic", action="store_true",
+                   help="the gas is monatomic (one atom: no rotational or vibrational energy), for a gas given by "
+                        "--molar-mass whose thermal conductivity is fitted")
     p.add_argument("--out", required=True, metavar="DIR", help="folder for parameters.json and the report")
     p.add_argument("--force", action="store_true", help="replace existing outputs in DIR")
     p.add_argument("--property", default="all", metavar="KINDS",

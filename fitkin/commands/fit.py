@@ -13,6 +13,7 @@ from ..inference.priors import parse_prior_assignment
 from ..measurements import PROPERTY_KINDS
 from ..species import Gas
 from ..theory.internal import INTERNAL_MODELS, InternalEnergyTransport
+from ..thermo import MonatomicHeatCapacity
 from ..units import parse_quantity
 from ..workflow import FitOptions, run_fit_job
 from .tables import read_from_args
@@ -21,14 +22,19 @@ __all__ = ["run_fit", "gas_from_args", "options_from_args"]
 
 
 def gas_from_args(args):
-    """The Gas of --gas FILE, --formula F or --molar-mass M."""
+    """The Gas of --gas FILE, --formula F or --molar-mass M (with --monatomic: no internal energy)."""
+    monatomic = {"heat_capacity": MonatomicHeatCapacity()} if getattr(args, "monatomic", False) else {}
     if getattr(args, "gas", None):
+        if monatomic:
+            raise FitkinError("--monatomic goes with --formula or --molar-mass; with --gas FILE say it in the "
+                              "gas file ([molecule] geometry = \"monatomic\", see docs/gas-file.md)")
         gas = Gas.from_file(args.gas)
         return replace(gas, name=args.name) if args.name else gas
     if args.formula:
-        return Gas.from_formula(args.formula, name=args.name)
+        return Gas.from_formula(args.formula, name=args.name, **monatomic)
     molar_mass = parse_quantity(args.molar_mass, "kg/mol", name="--molar-mass")
-    return Gas(name=args.name or "gas", molar_mass=molar_mass, molar_mass_source="given on the command line")
+    return Gas(name=args.name or "gas", molar_mass=molar_mass, molar_mass_source="given on the command line",
+               **monatomic)
 
 
 def _internal_from_args(args):

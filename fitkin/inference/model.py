@@ -96,10 +96,16 @@ def default_internal_model(gas: Gas, fits_conductivity: bool, temperatures=None)
         return None
     if gas.heat_capacity is None:
         if fits_conductivity:
+            gas_file = ("describe the gas in a gas file with a [heat_capacity] table or [molecule] data "
+                        "(--gas FILE, see docs/gas-file.md), or fit viscosity only (--property viscosity)")
+            if gas.formula is None:   # given by its molar mass alone: it may well be an atom
+                raise FitError(f"fitkin does not know whether '{gas.name}' is monatomic: the thermal conductivity "
+                               "of a molecule carries internal (rotational, vibrational) energy, which needs its "
+                               "heat capacity. For a monatomic gas (a noble gas, a metal vapour) add --monatomic "
+                               "(in Python: Gas(..., heat_capacity=MonatomicHeatCapacity())); for a molecule, "
+                               + gas_file)
             raise FitError(f"the thermal conductivity of '{gas.name}' carries internal (rotational, vibrational) "
-                           "energy, and fitkin does not know this gas's heat capacity: describe the gas in a gas "
-                           "file with a [heat_capacity] table or [molecule] data (--gas FILE, see "
-                           "docs/gas-file.md), or fit viscosity only (--property viscosity)")
+                           "energy, and fitkin does not know this gas's heat capacity: " + gas_file)
         return None
     if gas.heat_capacity.has_rotational_split:
         return _named_model("rotation_vibration", gas, fits_conductivity, temperatures)
