@@ -181,7 +181,47 @@ def to_si(values, unit: pint.Unit, si_unit: str, *, difference: bool = False,
                         f"expected a unit convertible to {si_unit}", file=file, column=column)
     source = difference_unit(unit) if difference else unit
     magnitudes = np.asarray(values, dtype=float)
-    return np.asarray(ureg.Quantity(magnitudes, source).to(target).magnitude, dtype=float)
+    converted = np.asarray(ureg.Quantity(magnitudes, source).to(target).magnitude, dtype=float)
+    if not difference and is_offset_unit(unit):
+        converted = _round_offset_conversion(magnitudes, converted, unit, target)
+    return converted
+
+
+#: Decimal digits never exceeded when rounding an offset conversion (a float holds about 15).
+_MAX_DECIMALS = 12
+
+
+def _decimals(values: np.ndarray) -> np.ndarray:
+    """Decimal digits each value was written with (its shortest decimal form; at most 12)."""
+    found = np.full(values.shape, _MAX_DECIMALS, dtype=int)
+    pending = np.isfinite(values)
+    for d in range(_MAX_DECIMALS):
+        exact = pending & (np.round(values, d) == values)
+        found[exact] = d
+        pending &= ~exact
+    return found
+
+
+def _round_offset_conversion(written: np.ndarray, converted: np.ndarray, unit, target) -> np.ndarray:
+    """Converted offset temperatures rounded to the precision the lab wrote.
+
+    K = a x + b for x in °C (a = 1, b = 273.15) or °F (a = 5/9, b = 459.67 a). The float sum
+    carries last-bit noise (−243.15 °C → 29.99999999999997 K); the exact result has at most
+    max(decimals of x, decimals of the offset) decimals when a = 1, so rounding to that gives
+    back the exact value. When a ≠ 1 (°F) the exact result is a repeating decimal; three more
+    decimals keep it within 5e-4 of the written last digit (a round trip gives back what was
+    written), while removing the noise.
+    """
+    scale = float(ureg.Quantity(1.0, difference_unit(unit)).to(target).magnitude)
+    offset = float(ureg.Quantity(0.0, unit).to(target).magnitude)
+    offset_decimals = int(_decimals(np.array([round(offset / scale, 10)]))[0])
+    extra = 0 if abs(scale - 1.0) < 1e-15 else 3
+    digits = np.minimum(np.maximum(_decimals(np.abs(written)), offset_decimals) + extra, _MAX_DECIMALS)
+    out = np.array(converted, dtype=float)
+    for d in np.unique(digits[np.isfinite(written)]):
+        chosen = (digits == d) & np.isfinite(written)
+        out[chosen] = np.round(out[chosen], int(d))
+    return out
 
 
 def _dimension_words(unit: pint.Unit) -> str:

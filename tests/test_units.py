@@ -183,3 +183,41 @@ def test_a_lone_degree_sign_is_not_read_as_an_angle(text):
     with pytest.raises(UnitError) as info:
         units.parse_unit(text)
     assert "degree sign" in info.value.message
+
+
+# --- offset conversions keep the precision the lab wrote ---------------------------------------
+def test_celsius_conversion_is_exact_to_the_digits_written():
+    # 273.15 K is the defined offset of the Celsius scale (SI Brochure, 9th ed., 2.3.1)
+    c = units.parse_unit("°C")
+    converted = units.to_si([-243.15, 26.85, 20.123, -273.0, 1000.5], c, "K")
+    assert list(converted) == [30.0, 300.0, 293.273, 0.15, 1273.65]       # exact, not 29.99999999999997
+    assert -243.15 + 273.15 != 30.0                                          # the plain float sum is not
+    assert float(units.to_si(-243.15, c, "K")) == 30.0
+    assert units.parse_quantity("-243.15 °C", "K", name="T") == 30.0
+    assert np.isnan(units.to_si([np.nan, 26.85], c, "K")[0])
+
+
+def test_fahrenheit_conversion_round_trips_to_the_digits_written():
+    # T/K = (t/°F + 459.67) × 5/9 (NIST SP 811 (2008), B.8)
+    f = units.parse_unit("°F")
+    written = np.array([80.3, -405.67, 32.0, 212.0, 98.65])
+    kelvin = units.to_si(written, f, "K")
+    assert list(kelvin[1:4]) == [30.0, 273.15, 373.15]
+    np.testing.assert_allclose(kelvin, (written + 459.67) * 5 / 9, rtol=0, atol=5e-6)
+    back = kelvin * 9 / 5 - 459.67
+    assert list(np.round(back, 2)) == list(written)
+
+
+def test_celsius_table_round_trips_through_a_saved_fit(tmp_path):
+    # invented viscosities of a noble-gas-like size; the point is the saved temperatures
+    import json
+    from fitkin.cli import main
+    path = tmp_path / "c.csv"
+    path.write_text("T [°C],viscosity [uPa s]\n-243.15,5.0\n-193.15,8.0\n-123.15,12.3\n26.85,22.7\n",
+                    encoding="utf-8")
+    code = main(["fit", str(path), "--formula", "Ar", "--potential", "hs", "--order", "1", "--no-report",
+                 "--out", str(tmp_path / "fit")])
+    assert code == 0
+    record = json.loads((tmp_path / "fit" / "parameters.json").read_text(encoding="utf-8"))
+    assert record["data"]["temperature_range_K"] == [30.0, 300.0]
+    assert sorted(r["T_K"] for r in record["residuals"]) == [30.0, 80.0, 150.0, 300.0]
