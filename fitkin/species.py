@@ -3,82 +3,28 @@ polar models need — ideal-gas heat capacity, dipole moment — plus critical c
 
 Physics modules take the molar mass in kg/mol, the heat capacity and the dipole moment (C m)
 from a :class:`Gas`; nothing here reads files (:meth:`Gas.from_file` hands over to
-:mod:`fitkin.gas_file`).
+:mod:`fitkin.gas_description`, which returns the checked fields). Chemical formulas are parsed
+in :mod:`fitkin.formula`; :data:`DEBYE` lives in :mod:`fitkin.units`. Both are re-exported here.
 """
 from __future__ import annotations
 
-import re
 import math
 from dataclasses import dataclass
 
 from scipy import constants
 
-from .atomic_weights import ATOMIC_WEIGHTS, ATOMIC_WEIGHTS_EDITION
+from .atomic_weights import ATOMIC_WEIGHTS_EDITION
 from .errors import FitkinError, GasError
+from .formula import molar_mass_from_formula, parse_formula
+from .gas_description import gas_fields, read_gas_fields
 from .inference.corresponding_states import CriticalConstants
 from .thermo import HeatCapacity, MonatomicHeatCapacity, RigidRotorHarmonicOscillator, heat_capacity_from_dict
+from .units import DEBYE
 
 __all__ = ["Gas", "CriticalConstants", "molar_mass_from_formula", "parse_formula", "DEBYE"]
 
-#: One debye in C m: 1e-21 / c (CODATA c through scipy.constants), the unit dipole moments
-#: are tabulated in.
-DEBYE = 1e-21 / constants.c
-
 #: Largest plausible permanent dipole moment of a gas molecule (about 11 D), to catch unit slips.
 _MAX_DIPOLE = 11.0 * DEBYE
-
-_TOKEN = re.compile(r"([A-Z][a-z]?)(\d*)|(\()|(\))(\d*)|(\s+)|(.)")
-
-
-def parse_formula(formula: str) -> dict[str, int]:
-    """Element counts of a chemical formula such as ``"CO2"``, ``"SF6"`` or ``"(CH3)2O"``.
-
-    Parentheses may be nested and carry a multiplier; whitespace is ignored.
-
-    >>> parse_formula("(CH3)2O")
-    {'C': 2, 'H': 6, 'O': 1}
-    """
-    if not isinstance(formula, str) or not formula.strip():
-        raise GasError("empty chemical formula; give e.g. 'Ar', 'CO2' or 'SF6'")
-    stack: list[dict[str, int]] = [{}]
-    for m in _TOKEN.finditer(formula):
-        element, count, opening, closing, multiplier, space, other = m.groups()
-        if element:
-            if element not in ATOMIC_WEIGHTS:
-                raise GasError(f"unknown element symbol '{element}' in formula '{formula}'"
-                               " (symbols are case-sensitive: 'Co' is cobalt, 'CO' carbon monoxide)")
-            n = int(count) if count else 1
-            stack[-1][element] = stack[-1].get(element, 0) + n
-        elif opening:
-            stack.append({})
-        elif closing is not None and closing:
-            if len(stack) == 1:
-                raise GasError(f"unbalanced ')' in formula '{formula}'")
-            group = stack.pop()
-            k = int(multiplier) if multiplier else 1
-            for el, n in group.items():
-                stack[-1][el] = stack[-1].get(el, 0) + n * k
-        elif space:
-            continue
-        else:
-            raise GasError(f"unexpected character '{other}' in formula '{formula}'")
-    if len(stack) != 1:
-        raise GasError(f"unbalanced '(' in formula '{formula}'")
-    if not stack[0] or any(n == 0 for n in stack[0].values()):
-        raise GasError(f"formula '{formula}' has no atoms")
-    return stack[0]
-
-
-def molar_mass_from_formula(formula: str) -> float:
-    """Molar mass in kg/mol from a chemical formula, with the standard atomic weights of
-    :data:`fitkin.atomic_weights.ATOMIC_WEIGHTS_EDITION`.
-
-    >>> round(molar_mass_from_formula("CO2") * 1000, 3)
-    44.009
-    """
-    counts = parse_formula(formula)
-    return sum(ATOMIC_WEIGHTS[el] * n for el, n in counts.items()) * 1e-3
-
 
 @dataclass(frozen=True)
 class Gas:
@@ -142,9 +88,23 @@ class Gas:
 
     @classmethod
     def from_file(cls, path) -> "Gas":
-        """A gas from a gas description file (TOML; see docs/gas-file.md)."""
-        from .gas_file import read_gas_file
-        return read_gas_file(path)
+        """A gas from a gas description file (TOML; see docs/gas-file.md).
+
+        Raises :class:`GasError` naming the file and the key for every problem."""
+        fields = read_gas_fields(path)
+        return cls._from_fields(fields, str(path))
+
+    @classmethod
+    def from_description(cls, data: dict, *, file: str = "<gas description>") -> "Gas":
+        """A gas from an already parsed gas description (the dict a TOML reader gives)."""
+        return cls._from_fields(gas_fields(data, file=file), file)
+
+    @classmethod
+    def _from_fields(cls, fields: dict, file: str) -> "Gas":
+        try:
+            return cls(**fields)
+        except GasError as exc:
+            raise GasError(f"{file}: {exc}") from None
 
     @property
     def molecular_mass(self) -> float:

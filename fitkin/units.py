@@ -28,6 +28,7 @@ import re
 
 import numpy as np
 import pint
+from scipy import constants
 
 from fitkin.errors import UnitError
 
@@ -42,7 +43,12 @@ __all__ = [
     "to_si",
     "parse_quantity",
     "format_unit",
+    "DEBYE",
 ]
+
+#: One debye in C m: 1e-21 / c (CODATA c through scipy.constants), the unit dipole moments
+#: are tabulated in.
+DEBYE = 1e-21 / constants.c
 
 #: The one unit registry of the project.
 ureg = pint.UnitRegistry()

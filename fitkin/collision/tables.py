@@ -33,7 +33,7 @@ from collections import OrderedDict
 import numpy as np
 from scipy.interpolate import CubicSpline
 
-from fitkin.collision import cache as _cache
+import fitkin.collision.cache as _cache
 from fitkin.collision.averages import compute_collision_integrals
 from fitkin.collision.scattering import ScatteringResolution
 from fitkin.errors import OutOfRangeError, PotentialError

@@ -12,7 +12,7 @@ import numpy as np
 
 from fitkin import units
 from fitkin.errors import InputError
-from fitkin.io import validate
+import fitkin.io.validate as validate
 from fitkin.io.headers import ColumnSpec, column_letter
 from fitkin.io.numbers import CellValueError, detect_decimal_comma, is_blank, parse_number
 from fitkin.measurements import PRESSURE_KINDS, PROPERTY_KINDS, PropertySeries

@@ -3,8 +3,8 @@
 All models share :class:`HeatCapacity` (``cp``, ``cv``, ``internal_cv``, ``rotational_cv``,
 ``vibrational_cv``; J/(mol K) for T in K). They are plain data: nothing here reads files.
 """
-from .heat_capacity import (GEOMETRIES, R, HeatCapacity, MonatomicHeatCapacity, TabulatedHeatCapacity,
-                            classical_rotational_cv, heat_capacity_from_dict)
+from .base import GEOMETRIES, R, HeatCapacity, classical_rotational_cv
+from .heat_capacity import MonatomicHeatCapacity, TabulatedHeatCapacity, heat_capacity_from_dict
 from .statistical import (SECOND_RADIATION_CONSTANT, RigidRotorHarmonicOscillator, einstein_cv,
                           vibrational_mode_count)
 

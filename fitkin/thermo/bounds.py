@@ -24,14 +24,12 @@ ch. 8 (polyatomic molecules, equipartition).
 from __future__ import annotations
 
 import numpy as np
-from scipy import constants
 
 from ..errors import GasError
+from .base import R
 
 __all__ = ["ROTATION_CLASSICAL_ABOVE", "UPPER_MARGIN", "FLOOR_TOLERANCE", "cp_floor", "cp_ceiling",
            "check_cp_table"]
-
-R = constants.R
 
 #: K; above this every molecule's rotation is classical (normal H₂ reaches (7/2) R near
 #: 380 K, see the module docstring), so a value below the classical floor is an error.

@@ -1,18 +1,9 @@
-"""Ideal-gas heat capacity models: the common interface, the monatomic gas and a c_p⁰ table.
+"""Ideal-gas heat capacity models: the monatomic gas and a c_p⁰ table, and rebuilding any model
+from its stored form.
 
-Every model gives molar heat capacities in J/(mol K) for temperatures in K, as numpy arrays
-of the shape of ``T`` (scalars give 0-d arrays):
-
-* ``cp(T)``  — ideal-gas isobaric heat capacity c_p⁰;
-* ``cv(T)``  — ideal-gas isochoric heat capacity c_v⁰ = c_p⁰ − R;
-* ``internal_cv(T)`` — the part of c_v⁰ held in internal (rotational, vibrational, ...)
-  degrees of freedom, c_v⁰ − (3/2) R;
-* ``rotational_cv(T)`` and ``vibrational_cv(T)`` — the split of ``internal_cv`` where the
-  molecule's geometry is known (``geometry`` is not None); the rotational part is the
-  classical rigid-rotor value, R for a linear and (3/2) R for a non-linear molecule, and
-  ``vibrational_cv`` the rest. The split is what the Mason–Monchick conductivity needs.
-
-The statistical-mechanics model from vibrational wavenumbers lives in
+The interface every model shares (``cp``, ``cv``, ``internal_cv``, ``rotational_cv``,
+``vibrational_cv``; J/(mol K) for T in K) is :class:`fitkin.thermo.base.HeatCapacity`; the
+statistical-mechanics model from vibrational wavenumbers lives in
 :mod:`fitkin.thermo.statistical`.
 """
 from __future__ import annotations
@@ -20,11 +11,12 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 
 import numpy as np
-from scipy import constants
 from scipy.interpolate import PchipInterpolator
 
-from ..errors import GasError, OutOfRangeError
+from ..errors import GasError
+from .base import GEOMETRIES, R, HeatCapacity, as_temperature, classical_rotational_cv
 from .bounds import FLOOR_TOLERANCE, check_cp_table  # noqa: F401 - FLOOR_TOLERANCE kept importable here
+from .statistical import RigidRotorHarmonicOscillator
 
 __all__ = [
     "R",
@@ -35,107 +27,6 @@ __all__ = [
     "classical_rotational_cv",
     "heat_capacity_from_dict",
 ]
-
-#: Molar gas constant in J/(mol K) (CODATA, through scipy.constants).
-R = constants.R
-
-#: Molecular geometries fitkin knows: a single atom, a linear and a non-linear molecule.
-GEOMETRIES = ("monatomic", "linear", "nonlinear")
-
-
-def classical_rotational_cv(geometry: str) -> float:
-    """Classical rigid-rotor rotational heat capacity in J/(mol K): 0, R or (3/2) R.
-
-    Valid when T is well above the rotational temperatures (a few kelvin for N₂, CO₂, CH₄;
-    85 K for H₂, which this does not describe). Equipartition: each rotational degree of
-    freedom carries R/2 (McQuarrie, Statistical Mechanics (1976), eqs. (6-32) and (8-27)).
-
-    >>> round(classical_rotational_cv("linear") / R, 6), round(classical_rotational_cv("nonlinear") / R, 6)
-    (1.0, 1.5)
-    """
-    try:
-        return {"monatomic": 0.0, "linear": R, "nonlinear": 1.5 * R}[geometry]
-    except KeyError:
-        raise GasError(f"unknown molecular geometry '{geometry}'; expected one of "
-                       f"{', '.join(GEOMETRIES)}") from None
-
-
-def _as_temperature(T) -> np.ndarray:
-    t = np.asarray(T, dtype=float)
-    if np.any(~np.isfinite(t)) or np.any(t <= 0):
-        raise OutOfRangeError("heat capacity: temperatures must be finite and above 0 K")
-    return t
-
-
-class HeatCapacity:
-    """Common interface of the heat-capacity models (see the module docstring).
-
-    Subclasses implement :meth:`internal_cv` and have a ``geometry`` attribute (None when
-    unknown; a plain attribute of each subclass, not of this base, so that dataclass
-    subclasses can make it a required field).
-    """
-
-    model = "base"
-
-    def internal_cv(self, T) -> np.ndarray:  # pragma: no cover - abstract
-        raise NotImplementedError
-
-    def cv(self, T) -> np.ndarray:
-        """c_v⁰(T) in J/(mol K)."""
-        return 1.5 * R + self.internal_cv(T)
-
-    def cp(self, T) -> np.ndarray:
-        """c_p⁰(T) in J/(mol K)."""
-        return self.cv(T) + R
-
-    @property
-    def has_rotational_split(self) -> bool:
-        """True when :meth:`rotational_cv` and :meth:`vibrational_cv` are known."""
-        return getattr(self, "geometry", None) is not None
-
-    def rotational_cv(self, T) -> np.ndarray:
-        """Rotational part of c_v⁰ in J/(mol K) (classical rigid rotor), shape of T."""
-        t = _as_temperature(T)
-        if getattr(self, "geometry", None) is None:
-            raise GasError(f"the {self.model} heat capacity does not know the molecule's geometry, so its "
-                           "rotational and vibrational parts are unknown: add geometry = \"linear\" or "
-                           "\"nonlinear\" under [molecule] in the gas file")
-        return np.full_like(t, classical_rotational_cv(self.geometry))
-
-    def vibrational_cv(self, T) -> np.ndarray:
-        """Vibrational (all non-rotational internal) part of c_v⁰ in J/(mol K), shape of T."""
-        return np.maximum(self.internal_cv(T) - self.rotational_cv(T), 0.0)
-
-    #: Where the model came from, for messages (e.g. "co2.toml [heat_capacity]").
-    origin = "the gas's heat-capacity model"
-
-    @property
-    def temperature_range(self) -> tuple[float, float]:
-        """(T_min, T_max) in K where the model may be evaluated."""
-        return (0.0, float("inf"))
-
-    def covers(self, T) -> bool:
-        """True when every temperature of ``T`` (K) lies inside :attr:`temperature_range`."""
-        t = np.asarray(T, dtype=float)
-        lo, hi = self.temperature_range
-        return bool(t.size == 0 or (np.all(t >= lo * (1 - 1e-12)) and np.all(t <= hi * (1 + 1e-12))))
-
-    def check_covers(self, T, what: str = "the data") -> None:
-        """Raise :class:`OutOfRangeError` naming both ranges and :attr:`origin` when the model
-        does not cover every temperature of ``T`` (K), e.g. "co2.toml [heat_capacity] covers
-        300–400 K; the data span 250–800 K (3 of 5 points outside); extend the table"."""
-        t = np.asarray(T, dtype=float).ravel()
-        if self.covers(t):
-            return
-        lo, hi = self.temperature_range
-        outside = int(np.sum((t < lo * (1 - 1e-12)) | (t > hi * (1 + 1e-12))))
-        noun = "point" if t.size == 1 else "points"
-        raise OutOfRangeError(f"{self.origin} covers {lo:g}–{hi:g} K; {what} span {t.min():g}–{t.max():g} K "
-                              f"({outside} of {t.size} {noun} outside); fitkin does not extrapolate c_p⁰: "
-                              "extend the table to cover them")
-
-    def to_dict(self) -> dict:  # pragma: no cover - abstract
-        raise NotImplementedError
 
 
 @dataclass(frozen=True)
@@ -153,7 +44,7 @@ class MonatomicHeatCapacity(HeatCapacity):
     geometry = "monatomic"
 
     def internal_cv(self, T) -> np.ndarray:
-        return np.zeros_like(_as_temperature(T))
+        return np.zeros_like(as_temperature(T))
 
     def to_dict(self) -> dict:
         return {"model": self.model}
@@ -221,7 +112,7 @@ class TabulatedHeatCapacity(HeatCapacity):
         return (self.temperatures[0], self.temperatures[-1])
 
     def cp(self, T) -> np.ndarray:
-        t = _as_temperature(T)
+        t = as_temperature(T)
         lo, hi = self.temperature_range
         self.check_covers(t, what="the temperatures asked for")
         return np.asarray(self._spline(np.clip(t, lo, hi)), dtype=float)
@@ -253,7 +144,6 @@ def heat_capacity_from_dict(d: dict | None) -> HeatCapacity | None:
         return TabulatedHeatCapacity(tuple(d["temperatures_K"]), tuple(d["cp_J_per_mol_K"]),
                                      geometry=d.get("geometry"), source=d.get("source", ""))
     if model == "rigid_rotor_harmonic_oscillator":
-        from .statistical import RigidRotorHarmonicOscillator
         return RigidRotorHarmonicOscillator(geometry=d["geometry"], wavenumbers=tuple(d["wavenumbers_per_cm"]),
                                             degeneracies=tuple(d["degeneracies"]), atoms=d.get("atoms"))
     raise GasError(f"unknown heat-capacity model '{model}' in a stored gas description")

@@ -24,7 +24,7 @@ import numpy as np
 from scipy import constants
 
 from ..errors import GasError
-from .heat_capacity import HeatCapacity, R, _as_temperature, classical_rotational_cv
+from .base import HeatCapacity, R, as_temperature, classical_rotational_cv
 
 __all__ = [
     "SECOND_RADIATION_CONSTANT",
@@ -163,12 +163,12 @@ class RigidRotorHarmonicOscillator(HeatCapacity):
 
     def vibrational_cv(self, T) -> np.ndarray:
         """Σ g_i R E(θ_i/T) in J/(mol K), shape of T."""
-        t = _as_temperature(T)
+        t = as_temperature(T)
         x = self.vibrational_temperatures / t[..., None]
         return R * np.sum(np.asarray(self.degeneracies) * einstein_cv(x), axis=-1)
 
     def rotational_cv(self, T) -> np.ndarray:
-        t = _as_temperature(T)
+        t = as_temperature(T)
         return np.full_like(t, classical_rotational_cv(self.geometry))
 
     def internal_cv(self, T) -> np.ndarray:
