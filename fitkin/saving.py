@@ -39,6 +39,14 @@ def fit_record(result, tables=(), *, label: str | None = None, posterior=None, s
     record = result_to_record(result, tables, t_star_range=(float(t_star.min()), float(t_star.max())))
     if label:
         record["potential"]["label"] = label
+    # the bounds' origins are provenance; the advice belongs to the warnings already written
+    record.pop("undetermined_advice", None)
+    origins = record.pop("bound_origins", None)
+    if origins:
+        record.setdefault("provenance", {})["bound_origins"] = origins
+    for name, problem in (record.get("parameter_problems") or {}).items():
+        if name in record["parameters"]:
+            record["parameters"][name].update({"determined": False, "problem": problem})
     record.update(extra or {})
     eucken = eucken_entry(record)
     if eucken:

@@ -55,12 +55,15 @@ def format_fit_summary(result, record_path=None, truth: dict | None = None) -> s
     if truth:
         header += f"  {'generated from':>15}  {'deviation/σ':>11}"
     lines.append(header)
+    problems = result.extra.get("parameter_problems") or {}
     for name, p in result.parameters.items():
         unit = _UNIT_TEXT.get(p.unit, p.unit)
         text = f"{format_estimate(p.value, p.stderr)} {unit}".rstrip()
         row = f"  {_LABELS.get(name, name):<{width}} {text:>28}"
         if not p.vary:
             row += "  (fixed)"
+        elif name in problems:
+            row += f"  FAILED: {problems[name]}"
         if truth and name in truth:
             z = (p.value - truth[name]) / p.stderr if p.stderr and np.isfinite(p.stderr) else float("nan")
             row += f"  {truth[name]:>13g} {unit:<1}  {z:>+11.2f}"

@@ -23,6 +23,7 @@ from .inference.fitdata import FitData
 from .inference.compare_internal import compare_conductivity_models, format_conductivity_comparison
 from .inference.leastsq import check_heat_capacity_covers, resolve_internal
 from .inference.staged import conductivity_record, fit_with_conductivity, summary_lines
+from .inference.fit_checks import require_determined
 from .inference.sampling import sample_posterior
 from .io.parameter_file import write_parameter_file
 from .report import REPORT_NAME
@@ -119,6 +120,13 @@ def _sample(data, gas, choice, opts: FitOptions, result):
                             **sampling)
 
 
+def _has_prior(opts: FitOptions, gas) -> bool:
+    """True when the posterior will be sampled with a prior that can fix what the data cannot."""
+    sampling = opts.sample or {}
+    return bool(opts.sample is not None and (sampling.get("priors") or sampling.get("critical")
+                                             or gas.critical is not None))
+
+
 def _planned_paths(out_dir: Path, choices, opts: FitOptions):
     others = [out_dir / f"parameters-{_slug(c.label)}.json" for c in choices[1:]]
     if len(set(others) | {out_dir / PARAMETERS_NAME}) != len(choices):
@@ -163,7 +171,9 @@ def run_fit_job(tables, gas, *, potentials="lj", options: FitOptions | None = No
     gas_file : the gas description file ``gas`` came from, named in messages about it.
 
     Every output path, and that the gas's heat-capacity table covers the data, is checked
-    before any fitting, so a refusal costs no time. A report that cannot be made leaves the
+    before any fitting, so a refusal costs no time. A fit whose σ and ε/k the data cannot both
+    determine is refused (:func:`~fitkin.inference.fit_checks.require_determined`) unless
+    the posterior is sampled with a prior. A report that cannot be made leaves the
     fit a success: the parameter file is written and the problem is one of ``warnings``.
     """
     opts = options or FitOptions()
@@ -174,6 +184,9 @@ def run_fit_job(tables, gas, *, potentials="lj", options: FitOptions | None = No
     data = FitData.from_tables(tables, kinds)
     _check_coverage(data, gas, opts, gas_file)
     results = [_fit(data, gas, c, opts) for c in choices]
+    if not _has_prior(opts, gas):
+        for r in results:
+            require_determined(r)  # σ ± 10⁵ Å is not a result; with a prior the posterior may still be one
     extra = {"demo_truth": dict(truth)} if truth else {}
     texts = [format_fit_summary(results[0], None, truth=truth)]
     rows = None

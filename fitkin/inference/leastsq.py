@@ -8,30 +8,29 @@ uncertainties and the model agree.
 """
 from __future__ import annotations
 
+from dataclasses import replace
+
 import lmfit
 import numpy as np
-from scipy import stats
 
 from ..errors import FitError, OutOfRangeError
+from ..potentials import LennardJones
 from ..species import Gas
 from ..theory.transport import TransportModel
-from ..theory.quantum import QUANTUM_WARNING_RATIO, thermal_wavelength_ratio
+from .fit_checks import diagnose, parameter_problems
 from .fitdata import FitData
-from .model import ANGSTROM, ForwardModel, resolve_internal_model
+from .model import ForwardModel, resolve_internal_model
 from .result import PARAMETER_UNITS, FitResult, ParameterEstimate
 from .start import epsilon_bounds, starting_values
 
 __all__ = ["fit_least_squares", "resolve_internal", "SHAPE_BOUNDS", "SIGMA_BOUNDS_ANGSTROM", "diagnose",
-           "check_heat_capacity_covers"]
+           "check_heat_capacity_covers"]  # diagnose lives in fit_checks; kept here for existing imports
 
 SIGMA_BOUNDS_ANGSTROM = (1.0, 30.0)
 #: Bounds of free shape parameters: Mie repulsive exponent n, exp-6 steepness α.
 SHAPE_BOUNDS = {"n": (7.0, 40.0), "alpha": (10.0, 20.0)}
 #: Coarse values tried for free shape parameters when looking for a start.
 SHAPE_START_GRID = {"n": (9.0, 12.0, 16.0, 24.0), "alpha": (12.0, 14.0, 16.0)}
-
-CORRELATION_WARNING = 0.98
-NARROW_RANGE_RATIO = 1.5
 
 
 def resolve_internal(internal, gas: Gas, data: FitData):
@@ -125,7 +124,6 @@ def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(),
     FitResult with σ in Å and ε/k in K.
     """
     if potential is None:
-        from ..potentials import LennardJones
         potential = LennardJones()
     fixed = dict(fixed or {})
     if getattr(potential, "name", None) == "hs" and "epsilon_over_k" not in fixed:
@@ -147,7 +145,8 @@ def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(),
     else:
         sig0, eps0 = float(start["sigma"]), float(start["epsilon_over_k"])
         shape0 = {n: float(start[n]) for n in model.free_shape}
-    eps_lo, eps_hi = epsilon_bounds(data, model.transport(shape0 or None).t_star_range)
+    t_star_range = model.transport(shape0 or None).t_star_range
+    eps_lo, eps_hi = epsilon_bounds(data, t_star_range)
     params = lmfit.Parameters()
     params.add("sigma", value=fixed.get("sigma", sig0), min=SIGMA_BOUNDS_ANGSTROM[0],
                max=SIGMA_BOUNDS_ANGSTROM[1], vary="sigma" not in fixed)
@@ -187,59 +186,40 @@ def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(),
         weighted=data.weighted, success=bool(out.success), message=str(out.message),
         evaluations=int(out.nfev), prediction=prediction, data=data,
         extra={"start": {"sigma": sig0, "epsilon_over_k": eps0, **shape0},
-               "bounds": {n: [float(p.min), float(p.max)] for n, p in out.params.items()}},
+               "bounds": {n: [float(p.min), float(p.max)] for n, p in out.params.items()},
+               "bound_origins": _bound_origins(model, t_star_range),
+               "undetermined_advice": _undetermined_advice(model)},
     )
+    result = replace(result, extra={**result.extra, "parameter_problems": parameter_problems(result)})
+    warnings = diagnose(result)
     reach = model.transport(shape0 or None).t_star_range_note
-    if reach and np.isclose(eps_lo, data.temperature.max() / model.transport(shape0 or None).t_star_range[1], rtol=1e-3):
-        reach = (f"ε/k was kept ≥ {eps_lo:.4g} K so that {data.temperature.max():.4g} K stays inside the computed "
-                 f"T* range: {reach}")
-        return _with_warnings(result, diagnose(result) + [reach])
-    return _with_warnings(result, diagnose(result))
-
-
-def _with_warnings(result: FitResult, warnings: list[str]) -> FitResult:
-    from dataclasses import replace
+    if reach and np.isclose(eps_lo, data.temperature.max() / t_star_range[1], rtol=1e-3):
+        warnings.append(f"ε/k was kept ≥ {eps_lo:.4g} K so that {data.temperature.max():.4g} K stays inside the "
+                        f"computed T* range: {reach}")
     return replace(result, warnings=tuple(warnings))
 
 
-def diagnose(result: FitResult) -> list[str]:
-    """Plain-language warnings about a fit: degeneracy, poor fit, bounds, quantum regime."""
-    warn = []
-    data = result.data
-    if not result.success:
-        warn.append(f"the optimiser reports it did not converge: {result.message}")
-    names = list(result.names)
-    if "sigma" in names and "epsilon_over_k" in names:
-        r = result.correlation[names.index("sigma"), names.index("epsilon_over_k")]
-        if not np.isfinite(r):
-            warn.append("no covariance could be estimated: the data do not determine the parameters")
-        elif abs(r) > CORRELATION_WARNING:
-            warn.append(f"σ and ε/k are almost fully correlated (r = {r:+.3f}): these data cannot separate "
-                        "them; widen the temperature range or fit another property jointly")
-    ratio = data.temperature.max() / data.temperature.min()
-    if ratio < NARROW_RANGE_RATIO:
-        warn.append(f"the measured temperatures span only a factor {ratio:.2f} "
-                    f"({data.temperature.min():.1f}–{data.temperature.max():.1f} K): σ and ε/k are weakly "
-                    "determined separately, and predictions outside this range are extrapolations")
-    if result.dof > 0:
-        if result.weighted:
-            p = stats.chi2.sf(result.chi2, result.dof)
-            if p < 1e-3:
-                warn.append(f"poor fit: reduced χ² = {result.reduced_chi2:.2f} on {result.dof} degrees of "
-                            f"freedom (p = {p:.1e}); the stated uncertainties are too small or the potential "
-                            "shape cannot describe the data; standard errors are not rescaled")
-        else:
-            rms = float(np.sqrt(np.mean(result.residual_percent ** 2)))
-            warn.append(f"no uncertainties stated: equal relative weights used, standard errors scaled by the "
-                        f"scatter (rms deviation {rms:.2f} %)")
-    for n, (lo, hi) in result.extra.get("bounds", {}).items():
-        p = result.parameters[n]
-        if p.vary and (np.isclose(p.value, lo, rtol=1e-4) or np.isclose(p.value, hi, rtol=1e-4)):
-            warn.append(f"parameter {n} = {p.value:.4g} sits at its bound [{lo:.4g}, {hi:.4g}]; "
-                        "the true optimum lies outside what was allowed")
-    sigma = result.parameters["sigma"].value * ANGSTROM
-    lam = thermal_wavelength_ratio(data.temperature.min(), result.gas.molar_mass, sigma)
-    if lam > QUANTUM_WARNING_RATIO:
-        warn.append(f"quantum regime: at {data.temperature.min():.1f} K the thermal de Broglie wavelength is "
-                    f"{lam:.2f} σ; classical collision integrals are not accurate there")
-    return warn
+def _bound_origins(model: ForwardModel, t_star_range) -> dict:
+    """Where each bound of the search comes from (sentences for the warnings)."""
+    lo, hi = SIGMA_BOUNDS_ANGSTROM
+    out = {"t_star_range": [float(x) for x in t_star_range], "collision": model.collision,
+           "sigma": f"the range {lo:g}–{hi:g} Å fitkin allows for σ (no real molecule lies outside it): check the "
+                    "units of the data and the molar mass"}
+    for name in model.free_shape:
+        lo, hi = SHAPE_BOUNDS.get(name, (-np.inf, np.inf))
+        out[name] = (f"the range {lo:g}–{hi:g} fitkin allows for {name}: the data want a shape outside it, so fix "
+                     f"{name} (e.g. {model.potential.name}:{lo if name == 'n' else hi:g}) or use another shape")
+    for name in model.internal_names:
+        lo, hi = model.internal.bounds[name]
+        out[name] = (f"the range {lo:g}–{hi:g} the {model.internal.name} model allows for {name}: leave it out "
+                     f"of --fit-internal to hold it at its default {model.internal.defaults[name]:g}")
+    return out
+
+
+def _undetermined_advice(model: ForwardModel) -> dict:
+    advice = {n: f"fix it (e.g. {model.potential.name}:{model.potential.shape_parameters.get(n, 0):g}) or use "
+                 "another shape" for n in model.free_shape}
+    advice.update({n: f"leave it out of --fit-internal to hold it at its default "
+                      f"{model.internal.defaults[n]:g}, or add conductivity data over a wider range"
+                   for n in model.internal_names})
+    return advice

@@ -25,7 +25,8 @@ from .checks import Finding, report_findings
 from .comparison import elementary_comparison
 from .narrative import elementary_section, provenance_section
 from .sections import (OPTIONAL_SECTIONS, LABELS, UNIT_TEXT, ReportContext, Section, chi2_probability,
-                       figure_html, parameters_section, potential_text, probability_text, statistics_section)
+                       figure_html, parameter_status, parameters_section, potential_text, probability_text,
+                       statistics_section)
 
 __all__ = ["write_report", "report_from_parameter_file", "build_report", "render_page", "REPORT_NAME", "FIGURE_FOLDER", "CAUTION"]
 
@@ -122,6 +123,8 @@ def _summary(ctx: ReportContext) -> Section:
         varied = p[name].get("varied", True)
         sub = ("standard uncertainty u" + (f"; correlation r = {rho:+.3f}" if rho is not None and
                                            name == "epsilon_over_k" else "")) if varied else "held fixed, not fitted"
+        if varied and p[name].get("determined") is False:
+            sub = parameter_status(p[name])
         value = (f"{format_estimate(p[name]['value'], u if (u is not None and varied) else float('nan'))} "
                  f"{UNIT_TEXT.get(p[name].get('unit'), '')}")
         if not varied and (r.get("potential") or {}).get("name") == "hs":
@@ -130,7 +133,7 @@ def _summary(ctx: ReportContext) -> Section:
     for name, q in p.items():
         if name not in ("sigma", "epsilon_over_k") and q.get("varied"):
             cards.append((LABELS.get(name, name), format_estimate(q["value"], q.get("stderr") or float("nan")),
-                          "shape parameter"))
+                          parameter_status(q) if q.get("determined") is False else "shape parameter"))
     prob = chi2_probability(s)
     red = s.get("reduced_chi2")
     cards.append(("reduced χ²", f"{red:.3g}" if red is not None else "—",
@@ -145,7 +148,9 @@ def _summary(ctx: ReportContext) -> Section:
     html = '<div class="cards">' + "".join(
         f'<div class="card"><div class="label">{escape(a)}</div><div class="value">{escape(b)}</div>'
         f'<div class="sub">{escape(c)}</div></div>' for a, b, c in cards) + "</div>"
-    html += f'<p class="verdict">{_verdict(s, prob, n_warn)}</p>'
+    failed = [LABELS.get(n, n).split(" (")[0] for n, q in p.items() if q.get("varied", True)
+              and q.get("determined") is False]
+    html += f'<p class="verdict">{_verdict(s, prob, n_warn, failed)}</p>'
     html += (f'<p class="small">Model: {escape(potential_text(r.get("potential")))}, Chapman–Enskog order '
              f'{escape(str((r.get("theory") or {}).get("sonine_order")))}, collision integrals '
              f'{escape(str((r.get("theory") or {}).get("collision_integrals")))}. Predictions outside '
@@ -159,9 +164,12 @@ def _eq(prob: float) -> str:
     return text if text.startswith("<") else f"= {text}"
 
 
-def _verdict(s: dict, prob, n_warn: int) -> str:
+def _verdict(s: dict, prob, n_warn: int, failed=()) -> str:
     if not s.get("optimiser_success", True):
         return '<b class="warn">The optimiser did not converge:</b> do not use these parameters.'
+    if failed:
+        return (f'<b class="warn">The fit failed for {escape(", ".join(failed))}</b> (see Parameters and '
+                f"Diagnostics): do not use {'this value' if len(failed) == 1 else 'these values'}.")
     if prob is not None:
         if prob < 1e-3:
             text = (f'<b class="warn">The fit is not consistent with the stated uncertainties</b> '

@@ -18,7 +18,7 @@ from ..summary import format_estimate
 from . import style as st
 
 __all__ = ["Section", "ReportContext", "table", "figure_html", "parameters_section", "statistics_section",
-           "OPTIONAL_SECTIONS", "LABELS", "UNIT_TEXT", "potential_text", "sci",
+           "OPTIONAL_SECTIONS", "LABELS", "UNIT_TEXT", "potential_text", "sci", "parameter_status",
            "probability_text", "chi2_probability"]
 
 LABELS = {"sigma": "σ", "epsilon_over_k": "ε/k", "n": "n (repulsive exponent)", "m": "m (attractive exponent)",
@@ -146,6 +146,15 @@ def _interval(record, name):
     return f"{p['value'] - 1.96 * u:.5g} – {p['value'] + 1.96 * u:.5g}", "value ± 1.96 u"
 
 
+def parameter_status(entry: dict) -> str:
+    """'varied', 'fixed', or 'FAILED: at its lower bound 0.2125 K' for a parameter-file entry."""
+    if not entry.get("varied", True):
+        return "fixed"
+    if entry.get("determined") is False:
+        return f"FAILED: {entry.get('problem') or 'not determined'}"
+    return "varied"
+
+
 def parameters_section(ctx: ReportContext) -> Section:
     """Parameter table with standard uncertainties, intervals and the correlation matrix."""
     record = ctx.record
@@ -157,7 +166,7 @@ def parameters_section(ctx: ReportContext) -> Section:
         basis.add(how)
         rows.append([LABELS.get(name, name), format_estimate(p["value"], u if u is not None else float("nan")),
                      UNIT_TEXT.get(p.get("unit"), p.get("unit", "")), rel, interval,
-                     "varied" if p.get("varied", True) else "fixed"])
+                     parameter_status(p)])
     html = table(["parameter", "estimate ± standard uncertainty u", "unit", "relative u", "95 % interval",
                   "status"], rows, text_columns=(0, 2, 5))
     basis.discard("")

@@ -1,0 +1,131 @@
+"""What a fit says about itself: undetermined parameters, parameters at a bound, refusals of
+data that cannot separate σ and ε/k, implausible optima, and advice that helps.
+
+Synthetic data are generated in each test from fitkin's forward model (Lennard-Jones 12-6,
+parameters invented for the test) or from a stated power law; CO₂ comes from CoolProp's
+dilute-gas (100 Pa) reference correlations (test-only outside source, from memory: Laesecke &
+Muzny 2017 viscosity, Huber et al. 2016 conductivity).
+"""
+import json
+
+import numpy as np
+import pytest
+
+from fitkin.cli import main
+from fitkin.inference.corresponding_states import CriticalConstants, tee_gotoh_stewart
+from fitkin.inference.fit_checks import LOWEST_PLAUSIBLE_T_STAR
+from fitkin.potentials import LennardJones
+from fitkin.species import Gas
+from fitkin.theory.transport import TransportModel
+
+ARGON = Gas.from_formula("Ar")
+SAMPLE_CO2 = "sample_data/example_gas_co2.toml"
+
+
+def viscosity_csv(path, T, mu, rel_u=0.5):
+    rows = ["T [K],viscosity [uPa s],u(viscosity) [%]"] + [f"{t:.4f},{m * 1e6:.6f},{rel_u}" for t, m in zip(T, mu)]
+    path.write_text("\n".join(rows) + "\n", encoding="utf-8")
+    return path
+
+
+def lj_viscosity(T, sigma, eps, gas=ARGON, noise=0.0, seed=2, order=3):
+    mu = TransportModel(LennardJones(), order=order).viscosity(np.asarray(T, float), gas.molar_mass, sigma * 1e-10, eps)
+    return mu * (1 + noise * np.random.default_rng(seed).standard_normal(len(mu)))
+
+
+def run(capsys, *argv):
+    code = main([str(a) for a in argv])
+    cap = capsys.readouterr()
+    return code, cap.out, cap.err
+
+
+@pytest.mark.parametrize("T", [np.linspace(300.0, 300.9, 10), np.full(6, 300.0)], ids=["0.9 K", "one T"])
+def test_data_that_cannot_separate_sigma_and_epsilon_are_refused(tmp_path, capsys, T):
+    f = viscosity_csv(tmp_path / "v.csv", T, lj_viscosity(T, 3.35, 143.0, noise=0.002))
+    code, out, err = run(capsys, "fit", f, "--formula", "Ar", "--out", tmp_path / "fit")
+    assert code == 2
+    assert "σ and ε/k cannot both be determined" in err and "No parameters were written" in err
+    assert ("one temperature, 300 K" in err) if np.ptp(T) == 0 else ("span only 300–300.9 K" in err)
+    assert "wider temperature range" in err and "B(T)" in err and "--prior" in err
+    assert not (tmp_path / "fit").exists()
+
+
+def test_undetermined_internal_parameters_are_named(tmp_path, capsys):
+    CP = pytest.importorskip("CoolProp.CoolProp")
+    T = np.linspace(260, 900, 10)
+    rows = ["T [K],viscosity [uPa s],u(viscosity) [%],k [mW/(m K)],u(k) [%]"]
+    rows += [f"{t},{CP.PropsSI('V', 'T', t, 'P', 100.0, 'CO2') * 1e6:.5f},0.5,"
+             f"{CP.PropsSI('L', 'T', t, 'P', 100.0, 'CO2') * 1e3:.5f},1.0" for t in T]
+    (tmp_path / "co2.csv").write_text("\n".join(rows) + "\n", encoding="utf-8")
+    code, out, err = run(capsys, "fit", tmp_path / "co2.csv", "--gas", SAMPLE_CO2, "--out", tmp_path / "fit",
+                         "--fit-internal", "all", "--conductivity-model", "mason_monchick", "--no-report")
+    assert code == 0, err
+    rec = json.loads((tmp_path / "fit" / "parameters.json").read_text())
+    failed = {n for n, p in rec["parameters"].items() if p.get("determined") is False}
+    # z_rot_inf was 2 ± 1579 with no word said; its standard error exceeds its value here
+    z = rec["parameters"]["z_rot_inf"]
+    assert "z_rot_inf" in failed and z["stderr"] > z["value"]
+    assert "not determined by these data" in z["problem"]
+    assert any(line.startswith("  - z_rot_inf =") and "leave it out of --fit-internal" in line
+               for line in out.splitlines())
+    assert "FAILED: not determined" in out and {"sigma", "epsilon_over_k"}.isdisjoint(failed)
+
+
+def test_parameter_at_a_bound_is_a_failed_fit_with_its_origin(tmp_path, capsys):
+    # μ ∝ T^0.3 grows more slowly than any Lennard-Jones gas can (at least T^0.5), so the fit
+    # drives ε/k to the lowest value the Neufeld range 0.3 ≤ T* ≤ 100 allows: 1000 K / 100 = 10 K
+    T = np.linspace(300, 1000, 10)
+    f = viscosity_csv(tmp_path / "flat.csv", T, 22.7e-6 * (T / 300) ** 0.3)
+    code, out, err = run(capsys, "fit", f, "--formula", "Ar", "--out", tmp_path / "fit", "--collision", "neufeld",
+                         "--order", "1")
+    assert code == 0, err
+    assert "FAILED: at its lower bound 10 K" in out
+    line = next(x for x in out.splitlines() if "the fit failed for ε/k" in x)
+    assert "T* = 0.3–100" in line and "highest measured temperature (1000 K)" in line and "--prior" in line
+    rec = json.loads((tmp_path / "fit" / "parameters.json").read_text())
+    eps = rec["parameters"]["epsilon_over_k"]
+    assert eps["determined"] is False and eps["problem"] == "at its lower bound 10 K"
+    assert rec["provenance"]["bound_origins"]["t_star_range"] == [0.3, 100.0]
+    page = (tmp_path / "fit" / "report.html").read_text(encoding="utf-8")
+    assert "FAILED: at its lower bound 10 K" in page
+    assert "The fit failed for σ, ε/k</b>" in page  # σ ± 5·10⁴ Å follows ε/k to the bound
+
+
+def test_data_at_implausibly_low_reduced_temperature_are_flagged(tmp_path, capsys):
+    # a gas whose fitted ε/k puts the coldest point at T* = 0.1 (invented for the test)
+    T = np.geomspace(100, 600, 12)
+    f = viscosity_csv(tmp_path / "v.csv", T, lj_viscosity(T, 4.0, 1000.0, noise=0.002))
+    code, out, err = run(capsys, "fit", f, "--formula", "Ar", "--out", tmp_path / "fit", "--no-report")
+    assert code == 0, err
+    assert 100 / 1000 < LOWEST_PLAUSIBLE_T_STAR
+    assert "far below where a dilute gas exists" in out
+
+
+def test_epsilon_far_from_corresponding_states_is_flagged(tmp_path, capsys):
+    # data generated with ε/k = 143 K, but the gas file claims T_c = 1000 K, P_c = 5 MPa:
+    # Tee–Gotoh–Stewart (1966) give ε/k = 0.774 T_c = 774 K, 5.4 times the fitted value
+    (tmp_path / "gas.toml").write_text('name = "odd argon"\nformula = "Ar"\n[critical]\n'
+                                       'temperature = "1000 K"\npressure = "5 MPa"\n', encoding="utf-8")
+    T = np.linspace(150, 900, 12)
+    f = viscosity_csv(tmp_path / "v.csv", T, lj_viscosity(T, 3.35, 143.0, noise=0.002))
+    code, out, err = run(capsys, "fit", f, "--gas", tmp_path / "gas.toml", "--out", tmp_path / "fit", "--no-report")
+    assert code == 0, err
+    _, eps_cs = tee_gotoh_stewart(1000.0, 5e6)
+    assert eps_cs == pytest.approx(774.0)  # Source: Tee, Gotoh & Stewart, Ind. Eng. Chem. Fundam. 5, 356 (1966)
+    assert f"corresponding-states estimate {eps_cs:.4g} K" in out and "not physical" in out
+    # the same data with the argon's own critical constants raise nothing
+    # Source: argon T_c = 150.687 K, P_c = 4.863 MPa (Tegeler, Span & Wagner 1999; from memory)
+    (tmp_path / "ar.toml").write_text('name = "argon"\nformula = "Ar"\n[critical]\n'
+                                      'temperature = "150.687 K"\npressure = "4.863 MPa"\n', encoding="utf-8")
+    code, out, err = run(capsys, "fit", f, "--gas", tmp_path / "ar.toml", "--out", tmp_path / "fit2", "--no-report")
+    assert code == 0 and "corresponding-states" not in out
+
+
+def test_correlation_warning_advises_what_helps(tmp_path, capsys):
+    T = np.linspace(300, 420, 10)
+    f = viscosity_csv(tmp_path / "v.csv", T, lj_viscosity(T, 3.35, 143.0, noise=0.002))
+    code, out, err = run(capsys, "fit", f, "--formula", "Ar", "--out", tmp_path / "fit", "--no-report")
+    assert code == 0, err
+    line = next(x for x in out.splitlines() if "almost fully correlated" in x)
+    assert "fit another property" not in line
+    assert "wider temperature range" in line and "B(T)" in line and "self-diffusion" in line and "prior" in line
