@@ -21,7 +21,7 @@ from .errors import FitkinError, OutputExistsError
 from .inference.compare import PotentialChoice, comparison_rows, format_comparison, parse_potential_choice
 from .inference.fitdata import FitData
 from .inference.compare_internal import compare_conductivity_models, format_conductivity_comparison
-from .inference.leastsq import check_heat_capacity_covers, resolve_internal
+from .inference.model import is_monatomic
 from .inference.staged import conductivity_record, fit_with_conductivity, summary_lines
 from .inference.fit_checks import require_determined
 from .inference.sampling import sample_posterior
@@ -147,14 +147,16 @@ def _check_outputs(planned, force: bool) -> None:
                                 "another output folder (--out)")
 
 
-def _check_coverage(data, gas, opts: FitOptions, gas_file) -> None:
-    """The heat-capacity table must cover the data (said before any fitting, with its origin)."""
-    where = f"{gas_file} [heat_capacity]" if gas_file else "the gas's c_p⁰ table"
-    check_heat_capacity_covers(gas, resolve_internal(opts.internal, gas, data), data, where=where)
+def _check_coverage(data, gas, opts: FitOptions) -> None:
+    """A heat-capacity table must cover the data: said before any fitting, naming the table
+    (its ``origin``, e.g. "gas.toml [heat_capacity]") and both ranges."""
+    hc = gas.heat_capacity
+    if hc is not None and opts.internal is not None and not is_monatomic(gas):
+        hc.check_covers(data.temperature, what="the data")
 
 
 def run_fit_job(tables, gas, *, potentials="lj", options: FitOptions | None = None, kinds=None,
-                out_dir, force: bool = False, truth: dict | None = None, gas_file=None) -> FitJobResult:
+                out_dir, force: bool = False, truth: dict | None = None) -> FitJobResult:
     """Fit each potential choice to ``tables``, compare them, sample the first and save.
 
     Parameters
@@ -168,7 +170,6 @@ def run_fit_job(tables, gas, *, potentials="lj", options: FitOptions | None = No
     kinds : property kinds to fit (default all in the tables).
     out_dir : folder of the outputs; nothing is replaced there unless ``force``.
     truth : the parameters behind synthetic data (the demo), shown beside the estimates.
-    gas_file : the gas description file ``gas`` came from, named in messages about it.
 
     Every output path, and that the gas's heat-capacity table covers the data, is checked
     before any fitting, so a refusal costs no time. A fit whose σ and ε/k the data cannot both
@@ -182,7 +183,7 @@ def run_fit_job(tables, gas, *, potentials="lj", options: FitOptions | None = No
     others, planned = _planned_paths(out_dir, choices, opts)
     _check_outputs(planned, force)  # fail before the work, not after it
     data = FitData.from_tables(tables, kinds)
-    _check_coverage(data, gas, opts, gas_file)
+    _check_coverage(data, gas, opts)
     results = [_fit(data, gas, c, opts) for c in choices]
     if not _has_prior(opts, gas):
         for r in results:

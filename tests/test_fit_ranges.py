@@ -94,7 +94,7 @@ def test_table_that_misses_the_data_is_named_up_front(tmp_path, capsys):
     data = data_file(tmp_path / "n2.csv", "Nitrogen", np.linspace(250, 800, 8))
     code, out, err = run(capsys, "fit", data, "--gas", gas, "--out", tmp_path / "fit")
     assert code == 2
-    assert f"{gas} [heat_capacity] covers 300–400 K, but the data span 250–800 K" in err
+    assert f"{gas} [heat_capacity] covers 300–400 K; the data span 250–800 K" in err
     assert "extend the table" in err and "start grid" not in err
     assert not (tmp_path / "fit").exists()  # refused before anything was written
 

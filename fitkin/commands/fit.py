@@ -94,7 +94,6 @@ def run_fit(args, out) -> int:
         for w in t.warnings:
             print(f"warning: {w}", file=out)
     job = run_fit_job(tables, gas_from_args(args), potentials=args.potential, options=options_from_args(args),
-                      kinds=_kinds(args.property), out_dir=args.out, force=args.force,
-                      gas_file=getattr(args, "gas", None))
+                      kinds=_kinds(args.property), out_dir=args.out, force=args.force)
     print(job.summary, file=out)
     return 0
