@@ -53,6 +53,11 @@ class FittedGas:
             polar=bool(theory.get("polar_correction", False)))
         self._model = self._forward.transport(self._theta())
 
+    @property
+    def forward_model(self):
+        """The :class:`~fitkin.inference.model.ForwardModel` of the fit (for analyses of it)."""
+        return self._forward
+
     # -- parameters --------------------------------------------------------------------
     @property
     def sigma(self) -> float:

@@ -15,6 +15,7 @@ from pathlib import Path
 
 from .errors import FitkinError
 from .inference.eucken import eucken_entry
+from .inference.staged import conductivity_record
 from .inference.posterior import save_samples
 from .io.atomic import check_can_write
 from .io.parameter_file import result_to_record, write_parameter_file
@@ -48,6 +49,8 @@ def fit_record(result, tables=(), *, label: str | None = None, posterior=None, s
         if name in record["parameters"]:
             record["parameters"][name].update({"determined": False, "problem": problem})
     record.update(extra or {})
+    if conductivity_record(result):  # how a polyatomic gas's conductivity was fitted, and the check
+        record["conductivity_fit"] = conductivity_record(result)
     eucken = eucken_entry(record)
     if eucken:
         record["eucken"] = eucken

@@ -22,7 +22,7 @@ from .inference.compare import PotentialChoice, comparison_rows, format_comparis
 from .inference.fitdata import FitData
 from .inference.compare_internal import compare_conductivity_models, format_conductivity_comparison
 from .inference.model import is_monatomic
-from .inference.staged import conductivity_record, fit_with_conductivity, summary_lines
+from .inference.staged import fit_with_conductivity, summary_lines
 from .inference.fit_checks import require_determined
 from .inference.sampling import sample_posterior
 from .io.parameter_file import write_parameter_file
@@ -197,8 +197,6 @@ def run_fit_job(tables, gas, *, potentials="lj", options: FitOptions | None = No
         texts.append("Potential shapes compared on the same data (lowest BIC preferred):\n"
                      + format_comparison(rows))
     texts += ["\n".join(summary_lines(results[0]))] if summary_lines(results[0]) else []
-    if conductivity_record(results[0]):
-        extra["conductivity_fit"] = conductivity_record(results[0])
     if opts.compare_conductivity:
         extra["conductivity_comparison"] = compare_conductivity_models(
             data, gas, choices[0].potential, opts.compare_conductivity, free_shape=choices[0].free_shape,

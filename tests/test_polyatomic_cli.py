@@ -123,3 +123,23 @@ def test_conductivity_model_comparison_table(tmp_path, capsys):
     code, _, err = run(capsys, "fit", visc, cond, "--gas", gas, "--out", tmp_path / "bad", "--no-report",
                        "--compare-conductivity", "eucken,nonsense")
     assert code == 2 and "nonsense" in err and "Traceback" not in err
+
+
+def test_report_shows_what_the_conductivity_says(tmp_path, capsys):
+    gas, visc, cond = write_co2(tmp_path, n=10)
+    out_dir = tmp_path / "rep"
+    code, out, err = run(capsys, "fit", visc, cond, "--gas", gas, "--out", out_dir,
+                         "--compare-conductivity", "modified_eucken,rotation_vibration")
+    assert code == 0, err
+    html = (out_dir / "report.html").read_text(encoding="utf-8")
+    assert "What the conductivity says" in html and "Consistency." in html
+    assert "standard errors of the fit without conductivity" in html
+    assert "Conductivity models compared" in html and "modified_eucken" in html
+    assert (out_dir / "figures" / "eucken.png").is_file() and (out_dir / "figures" / "internal_factors.png").is_file()
+    record = json.loads((out_dir / "parameters.json").read_text(encoding="utf-8"))
+    entry = record["eucken"]
+    # the fitted model's Eucken factor follows the data's (CO₂ k within the 2 % u, see above)
+    model_f = np.interp(entry["T_K"], entry["model"]["T_K"], entry["model"]["factor"])
+    assert np.max(np.abs(model_f / np.asarray(entry["factor"]) - 1)) < 0.03
+    assert {"rho_D_over_mu", "rotational_diffusion", "vibrational_diffusion", "z_rot"} <= set(entry["model"]["factors"])
+    assert "z_vib" in entry["fixed"]

@@ -11,9 +11,11 @@ from __future__ import annotations
 import numpy as np
 
 from ..errors import FitkinError
-from ..theory.internal import INTERNAL_MODELS
+from ..potentials import LennardJones
+from ..theory.internal import INTERNAL_MODELS, InternalEnergyTransport
 from .compare import information_criteria
 from .leastsq import fit_least_squares
+from .model import ForwardModel
 from .staged import consistency, fit_with_conductivity, subset
 
 __all__ = ["compare_conductivity_models", "format_conductivity_comparison", "parse_conductivity_models",
@@ -46,6 +48,18 @@ def _bound_names(result) -> list:
     return out
 
 
+def _eucken_factor(res, gas, potential, km, order, collision) -> np.ndarray:
+    """f = kM/(μ c_v) of the fitted model at the conductivity points."""
+    settings = res.model_settings
+    model = ForwardModel(gas=gas, potential=potential, free_shape=tuple(settings.get("free_shape") or ()),
+                         order=order, collision=collision,
+                         internal=InternalEnergyTransport.from_description(settings["internal_energy"]),
+                         polar=bool(settings.get("polar_correction")))
+    T = res.data.temperature[km]
+    mu = model.property("viscosity", res.theta(), T)
+    return res.prediction[km] * gas.molar_mass / (mu * gas.heat_capacity.cv(T))
+
+
 def compare_conductivity_models(data, gas, potential=None, models=DEFAULT_COMPARED, *, free_shape=(), order=3,
                                 collision="computed", polar=None) -> list[dict]:
     """One row per model (fitted jointly, started from the stages): "model", "fitted",
@@ -73,7 +87,10 @@ def compare_conductivity_models(data, gas, potential=None, models=DEFAULT_COMPAR
                      "sigma": res.value("sigma"), "epsilon_over_k": res.value("epsilon_over_k"),
                      "sigma_shift_in_stderr": check.get("sigma", {}).get("shift_in_stderr", float("nan")),
                      "epsilon_shift_in_stderr": check.get("epsilon_over_k", {}).get("shift_in_stderr", float("nan")),
-                     "at_bound": _bound_names(res)})
+                     "at_bound": _bound_names(res),
+                     "T_K": res.data.temperature[km].tolist(),
+                     "eucken_factor": _eucken_factor(res, gas, potential or LennardJones(), km, order,
+                                                     collision).tolist()})
     fitted = [r["bic"] for r in rows if "bic" in r]
     best = min(fitted) if fitted else float("nan")
     for r in rows:

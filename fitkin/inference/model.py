@@ -241,6 +241,18 @@ class ForwardModel:
             raise FitError(f"no model for property '{kind}'")
         return res[kind]
 
+    def conductivity_parts(self, theta: dict, T) -> dict:
+        """What the conductivity is made of at temperatures T (K): "viscosity", "rho_D",
+        "translational_conductivity", "conductivity" and "internal" (the internal-energy
+        model's Eucken factors, diffusion factors and collision numbers, see
+        :meth:`fitkin.theory.internal.InternalEnergyTransport.parts`)."""
+        tm = self.transport(theta)
+        internal = self.internal or InternalEnergyTransport("monatomic")
+        params = {n: float(theta[n]) for n in self.internal_names}
+        return transport_with_internal_energy(tm, internal, np.asarray(T, dtype=float), self.gas,
+                                              float(theta["sigma"]) * ANGSTROM, float(theta["epsilon_over_k"]),
+                                              params, polar=self.polar, parts=True)
+
     def second_virial(self, tm: TransportModel, T, sigma, eps) -> np.ndarray:
         """B(T) in m³/mol for σ in m (see :func:`second_virial_coefficient`)."""
         if self.polar:

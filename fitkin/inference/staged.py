@@ -191,6 +191,13 @@ def summary_lines(result: FitResult) -> list[str]:
              f"χ²/ν = {alt.get('reduced_chi2', float('nan')):.3g}",
              "  " + rec["conductivity_consistency"]["message"]]
     internal = result.model_settings.get("internal_energy") or {}
+    for n in internal.get("fitted", []):
+        lo, hi = result.extra.get("bounds", {}).get(n, (np.nan, np.nan))
+        value = result.parameters[n].value
+        for side, b in (("lower", lo), ("upper", hi)):
+            if np.isclose(value, b, rtol=1e-4):
+                lines.append(f"  {n} is at its {side} bound {b:g}: not determined by these data (its standard "
+                             "error means nothing); fix it with --fit-internal, or widen the temperature range")
     if internal.get("fixed"):
         lines.append(f"  internal-energy parameters fixed (not determined by these data): "
                      + ", ".join(f"{n} = {internal['values'][n]:g}" for n in internal["fixed"]))

@@ -23,6 +23,7 @@ from . import style as st
 from .bands import RecordModel
 from .checks import Finding, report_findings
 from .comparison import elementary_comparison
+from .conductivity import conductivity_section
 from .narrative import elementary_section, provenance_section
 from .sections import (OPTIONAL_SECTIONS, LABELS, UNIT_TEXT, ReportContext, Section, chi2_probability,
                        figure_html, parameter_status, parameters_section, potential_text, probability_text,
@@ -227,7 +228,7 @@ def build_report(record: dict, *, record_path=None, pressure: float = 101325.0,
                                 "σ and ε/k are usually strongly correlated: the data fix a curve in this plane "
                                 "better than either value alone."),
                 elementary_section(ctx)]
-    for builder in tuple(OPTIONAL_SECTIONS) + tuple(extra_sections):
+    for builder in (conductivity_section,) + tuple(OPTIONAL_SECTIONS) + tuple(extra_sections):
         sections.append(builder(ctx))
     sections += [_diagnostics(ctx), provenance_section(ctx)]
     return render_page(ctx, [s for s in sections if s is not None]), ctx

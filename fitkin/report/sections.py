@@ -211,23 +211,6 @@ def statistics_section(ctx: ReportContext) -> Section:
     return Section("statistics", "Fit statistics", html)
 
 
-def eucken_section(ctx: ReportContext) -> Section | None:
-    """Hook for the polyatomic analysis: shown when the record has an ``eucken`` entry
-    {"T_K": [...], "factor": [...], "label": str, "note": str}; the figure has the 5/2 line."""
-    entry = ctx.record.get("eucken")
-    if not isinstance(entry, dict) or not entry.get("T_K") or not entry.get("factor"):
-        return None
-    from matplotlib.figure import Figure
-    from .figures import eucken_axes
-    fig = Figure(figsize=(st.FIGURE_WIDTH, 3.4), layout="constrained")
-    eucken_axes(fig.subplots(), np.asarray(entry["T_K"], float), np.asarray(entry["factor"], float),
-                label=str(entry.get("label", "Eucken factor")), monatomic=False)
-    ctx.add_figure("eucken", fig, "Eucken factor f = kM/(μ c_v) against temperature, with the translational "
-                                  "(monatomic) value 5/2 and the elementary value 1.")
-    note = f"<p>{escape(str(entry['note']))}</p>" if entry.get("note") else ""
-    return Section("eucken", "Internal energy and the Eucken factor", note + figure_html(ctx, "eucken"))
-
-
 def potential_comparison_section(ctx: ReportContext) -> Section | None:
     """Potential shapes fitted to the same data (the record's ``comparison`` rows, see
     :func:`fitkin.inference.compare.comparison_rows`): parameters, χ²/ν, AIC, BIC, ΔBIC."""
@@ -256,4 +239,5 @@ def potential_comparison_section(ctx: ReportContext) -> Section | None:
 
 
 #: Sections that appear by themselves when the record carries their entry.
-OPTIONAL_SECTIONS = (eucken_section, potential_comparison_section)
+#: (The Eucken factor of a polyatomic gas is shown by fitkin.report.conductivity, which html.py adds.)
+OPTIONAL_SECTIONS = (potential_comparison_section,)
