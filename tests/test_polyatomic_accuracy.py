@@ -80,9 +80,8 @@ def test_non_polar_joint_fit(measured, name):
 @pytest.mark.parametrize("name", list(FLUIDS))
 def test_no_internal_parameter_at_a_bound_without_saying_so(measured, name):
     m = _get(measured, name)
-    text = " ".join(m["joint"].warnings)
     for n in m["at_bound"]:
-        assert f"parameter {n} =" in text and "bound" in text, (name, n)
+        assert any(n in w and "bound" in w for w in m["joint"].warnings), (name, n, m["joint"].warnings)
 
 
 # Polar fluids (effective Stockmayer treatment, Brokaw 1969): measured, not held to the

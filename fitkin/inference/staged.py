@@ -26,7 +26,8 @@ import numpy as np
 from ..errors import FitError
 from ..species import Gas
 from .fitdata import FitData
-from .leastsq import diagnose, fit_least_squares, resolve_internal
+from .fit_checks import diagnose
+from .leastsq import fit_least_squares, resolve_internal
 from .model import ForwardModel, with_shape
 from .result import FitResult
 
@@ -119,7 +120,11 @@ def _two_stage_result(data, gas, potential, free_shape, internal, first, second,
                        chi2=chi2, dof=len(data) - len(names), weighted=data.weighted,
                        success=first.success and second.success, message=f"{first.message}; {second.message}",
                        evaluations=first.evaluations + second.evaluations, prediction=prediction, data=data,
-                       extra={"start": first.extra.get("start", {}), "bounds": bounds})
+                       extra={"start": first.extra.get("start", {}), "bounds": bounds,
+                              "bound_origins": {**(first.extra.get("bound_origins") or {}),
+                                                **(second.extra.get("bound_origins") or {})},
+                              "undetermined_advice": {**(first.extra.get("undetermined_advice") or {}),
+                                                      **(second.extra.get("undetermined_advice") or {})}})
     return replace(result, warnings=tuple(diagnose(result)))
 
 
@@ -191,13 +196,6 @@ def summary_lines(result: FitResult) -> list[str]:
              f"χ²/ν = {alt.get('reduced_chi2', float('nan')):.3g}",
              "  " + rec["conductivity_consistency"]["message"]]
     internal = result.model_settings.get("internal_energy") or {}
-    for n in internal.get("fitted", []):
-        lo, hi = result.extra.get("bounds", {}).get(n, (np.nan, np.nan))
-        value = result.parameters[n].value
-        for side, b in (("lower", lo), ("upper", hi)):
-            if np.isclose(value, b, rtol=1e-4):
-                lines.append(f"  {n} is at its {side} bound {b:g}: not determined by these data (its standard "
-                             "error means nothing); fix it with --fit-internal, or widen the temperature range")
     if internal.get("fixed"):
         lines.append(f"  internal-energy parameters fixed (not determined by these data): "
                      + ", ".join(f"{n} = {internal['values'][n]:g}" for n in internal["fixed"]))
