@@ -129,3 +129,45 @@ def test_correlation_warning_advises_what_helps(tmp_path, capsys):
     line = next(x for x in out.splitlines() if "almost fully correlated" in x)
     assert "fit another property" not in line
     assert "wider temperature range" in line and "B(T)" in line and "self-diffusion" in line and "prior" in line
+
+
+def test_one_point_without_u_keeps_the_stated_weights(tmp_path, capsys):
+    T = np.linspace(200, 900, 12)
+    f1 = viscosity_csv(tmp_path / "a.csv", T, lj_viscosity(T, 3.35, 143.0, noise=0.004), rel_u=0.5)
+    (tmp_path / "b.csv").write_text(f"T [K],viscosity [uPa s]\n500,{lj_viscosity([500.0], 3.35, 143.0)[0] * 1e6:.5f}\n",
+                                    encoding="utf-8")
+    code, out, err = run(capsys, "fit", f1, tmp_path / "b.csv", "--formula", "Ar", "--out", tmp_path / "fit",
+                         "--no-report")
+    assert code == 0, err
+    assert "Weighting: stated uncertainties" in out and "equal relative weights" not in out
+    note = next(x for x in out.splitlines() if "weighting:" in x)
+    assert "b.csv: 1 viscosity point (row 2) states no uncertainty" in note
+    assert "assumed u = 0.5 % of the value" in note and "other 12 viscosity points" in note
+    rec = json.loads((tmp_path / "fit" / "parameters.json").read_text())
+    assert rec["statistics"]["weighting"] == "stated uncertainties"
+
+
+def test_a_property_without_any_u_beside_stated_ones_is_a_choice(tmp_path, capsys):
+    T = np.linspace(200, 900, 8)
+    f1 = viscosity_csv(tmp_path / "a.csv", T, lj_viscosity(T, 3.35, 143.0))
+    k = TransportModel(LennardJones(), order=3).conductivity(T, ARGON.molar_mass, 3.35e-10, 143.0)
+    (tmp_path / "k.csv").write_text("T [K],k [mW/(m K)]\n" + "".join(f"{t},{v * 1e3:.5f}\n" for t, v in zip(T, k)),
+                                    encoding="utf-8")
+    code, out, err = run(capsys, "fit", f1, tmp_path / "k.csv", "--formula", "Ar", "--out", tmp_path / "fit")
+    assert code == 2
+    assert "k.csv: the conductivity values state no uncertainties" in err
+    assert "u(conductivity) [%]" in err and "--property" in err and "equal relative weights" in err
+
+
+def test_overstated_uncertainties_are_flagged(tmp_path, capsys):
+    # 0.5 % noise with u = 2 % stated: χ²/ν is expected near (0.5/2)² = 0.0625 (definition of χ²)
+    T = np.linspace(200, 1000, 40)
+    f = viscosity_csv(tmp_path / "v.csv", T, lj_viscosity(T, 3.35, 143.0, noise=0.005, seed=11), rel_u=2.0)
+    code, out, err = run(capsys, "fit", f, "--formula", "Ar", "--out", tmp_path / "fit", "--no-report")
+    assert code == 0, err
+    rec = json.loads((tmp_path / "fit" / "parameters.json").read_text())
+    red = rec["statistics"]["reduced_chi2"]
+    assert 0.03 < red < 0.11  # ±3 sd of χ²/ν for ν = 38 around 0.0625
+    line = next(x for x in out.splitlines() if "far below 1" in x)
+    factor = float(line.split("look overstated about ")[1].split("×")[0])
+    assert factor == pytest.approx(1 / np.sqrt(red), rel=0.05) and 3.0 < factor < 6.0

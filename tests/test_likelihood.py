@@ -65,12 +65,22 @@ def test_gaussian_form_equals_normal_density():
     assert lik(x[None])[0] == pytest.approx(expected, rel=1e-12)
 
 
-def test_student_t_form_equals_t_density():
-    # Source: scipy.stats.t with the stated u as scale (Lange, Little & Taylor 1989, ν = 4).
-    lik = LogLikelihood(MODEL, JOINT, form="student_t", nu=4.0)
+@pytest.mark.parametrize("nu", [3.0, 4.0, 10.0])
+def test_student_t_form_equals_t_density_with_u_as_standard_deviation(nu):
+    # Source: scipy.stats.t (Lange, Little & Taylor 1989); the stated u is a standard deviation
+    # (JCGM 100:2008), so the t scale is u·√((ν−2)/ν) and the t's standard deviation is u.
+    lik = LogLikelihood(MODEL, JOINT, form="student_t", nu=nu)
     m = MODEL.predict({"sigma": 3.45, "epsilon_over_k": 125.0}, JOINT)
-    expected = stats.t.logpdf(JOINT.value, 4.0, m, JOINT.uncertainty).sum()
+    scale = JOINT.uncertainty * np.sqrt((nu - 2) / nu)
+    expected = stats.t.logpdf(JOINT.value, nu, m, scale).sum()
     assert lik(np.array([[3.45, 125.0]]))[0] == pytest.approx(expected, rel=1e-12)
+    assert stats.t.std(nu, 0.0, scale) == pytest.approx(JOINT.uncertainty, rel=1e-12)
+    assert "standard deviation" in lik.describe()["scale"]
+
+
+def test_student_t_needs_more_than_two_degrees_of_freedom():
+    with pytest.raises(FitError, match="must exceed 2"):
+        LogLikelihood(MODEL, JOINT, form="student_t", nu=2.0)
 
 
 def test_extra_scatter_adds_in_quadrature():

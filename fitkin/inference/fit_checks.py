@@ -201,6 +201,7 @@ def diagnose(result: FitResult) -> list[str]:
     data = result.data
     if not result.success:
         warn.append(f"the optimiser reports it did not converge: {result.message}")
+    warn += [f"weighting: {note}" for note in getattr(data, "notes", ())]
     problems = parameter_problems(result)
     warn += _sigma_epsilon_warnings(result, problems)
     ratio = data.temperature.max() / data.temperature.min()

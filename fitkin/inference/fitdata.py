@@ -1,7 +1,12 @@
 """The measurements of one fit, stacked into flat arrays (plain data for the likelihood).
 
 Weights. Points with stated standard uncertainties are weighted by them. Without any, a fit
-of transport data uses equal relative weights (residual = deviation / value). The second
+of transport data uses equal relative weights (residual = deviation / value). When only some
+points state u, the stated ones keep theirs: a point of a property without u is given the
+median relative uncertainty stated for that property's other points, and
+:attr:`FitData.notes` says exactly which points and what was assumed. A property none of
+whose points states u, beside others that do, is refused with the choices (there is no
+common scale to weigh them against each other). The second
 virial coefficient changes sign at the Boyle temperature, so a relative weight means nothing
 for it: B points must state u(B), and a fit that includes B needs stated uncertainties for
 every point (an absolute B residual and a relative transport residual share no scale that
@@ -29,8 +34,10 @@ class FitData:
     temperature : (n,) K.   value : (n,) SI.   uncertainty : (n,) SI absolute, NaN if not stated.
     pressure : (n,) Pa or NaN.   source : (n,) str.   rows : (n,) int row in its file.
     file : (n,) str file each point came from.
-    weighted : True when every point has a stated uncertainty; otherwise the fit uses
-        equal relative weights for all points (never with B points: see the module docstring).
+    weighted : True when every point has an uncertainty (stated, or assumed as ``notes``
+        say); otherwise the fit uses equal relative weights for all points (never with B
+        points: see the module docstring).
+    notes : sentences on what was assumed for points without a stated u (empty when nothing was).
     """
 
     kind: np.ndarray
@@ -42,6 +49,7 @@ class FitData:
     rows: np.ndarray
     file: np.ndarray
     weighted: bool
+    notes: tuple = ()
 
     @classmethod
     def from_tables(cls, tables, kinds=None) -> "FitData":
@@ -61,7 +69,7 @@ class FitData:
         _require_absolute_weights(parts)
         cat = lambda attr, dtype=None: np.concatenate(  # noqa: E731
             [np.asarray(getattr(p, attr), dtype=dtype) for p in parts])
-        unc = cat("uncertainty", float)
+        unc, notes = _complete_uncertainties(parts)
         return cls(
             kind=np.concatenate([np.full(len(p), p.kind, dtype=object) for p in parts]),
             temperature=cat("temperature", float),
@@ -72,6 +80,7 @@ class FitData:
             rows=cat("rows", int),
             file=np.concatenate([np.full(len(p), p.file, dtype=object) for p in parts]),
             weighted=bool(np.all(np.isfinite(unc) & (unc > 0))),
+            notes=tuple(notes),
         )
 
     def __len__(self) -> int:
@@ -99,6 +108,50 @@ class FitData:
                       "T_max_K": float(self.temperature[m].max()),
                       "sources": sorted(set(map(str, self.source[m])))}
         return out
+
+
+def _has_u(series) -> np.ndarray:
+    u = np.asarray(series.uncertainty, dtype=float)
+    return np.isfinite(u) & (u > 0)
+
+
+def _complete_uncertainties(parts) -> tuple[np.ndarray, list[str]]:
+    """The stacked u of ``parts``, with an assumed u for points that state none when others do
+    (see the module docstring); and the sentences saying what was assumed."""
+    unc = [np.asarray(p.uncertainty, dtype=float).copy() for p in parts]
+    has = [_has_u(p) for p in parts]
+    if all(h.all() for h in has) or not any(h.any() for h in has):
+        return np.concatenate(unc), []
+    notes = []
+    for kind in dict.fromkeys(p.kind for p in parts):
+        mine = [i for i, p in enumerate(parts) if p.kind == kind]
+        if all(has[i].all() for i in mine):
+            continue
+        stated = np.concatenate([np.asarray(parts[i].uncertainty, float)[has[i]] /
+                                 np.abs(np.asarray(parts[i].value, float)[has[i]]) for i in mine])
+        name = kind.replace("_", " ")
+        if stated.size == 0:
+            bare = next(parts[i] for i in mine)
+            given = sorted({str(p.file) for p, h in zip(parts, has) if h.any()})
+            raise FitError(f"{bare.file}: the {name} values state no uncertainties, while {', '.join(given)} state "
+                           "theirs; fitkin cannot weigh points with and without uncertainties against each other. "
+                           f"Choose: add a column such as 'u({name}) [%]' to {bare.file}; or fit only the "
+                           "properties that state uncertainties (--property); or leave the u(...) columns out of "
+                           "every file to fit all points with equal relative weights")
+        rel = float(np.median(stated))
+        for i in mine:
+            missing = ~has[i]
+            if missing.any():
+                p = parts[i]
+                unc[i][missing] = rel * np.abs(np.asarray(p.value, float)[missing])
+                rows = np.asarray(p.rows)[missing]
+                where = ", ".join(map(str, rows[:8])) + (" …" if rows.size > 8 else "")
+                many = missing.sum() > 1
+                notes.append(f"{p.file}: {int(missing.sum())} {name} point{'s' if many else ''} "
+                             f"(row{'s' if many else ''} {where}) state{'' if many else 's'} no uncertainty; assumed "
+                             f"u = {100 * rel:.3g} % of the value, the median relative uncertainty stated for the "
+                             f"other {stated.size} {name} points; add a u({name}) column to use your own")
+    return np.concatenate(unc), notes
 
 
 def _stated(series) -> bool:

@@ -11,9 +11,11 @@ scatter is s times the rms |B| of the fit's B points (a choice of this program).
 Forms
 -----
 * Gaussian with the stated per-point standard uncertainties u_i (JCGM 100:2008 for u).
-* Student-t with ν degrees of freedom and scale σ_i, the heavy-tailed form that down-weights
-  outliers (Lange, Little & Taylor, J. Am. Stat. Assoc. 84, 881 (1989); ν = 4 by default,
-  their suggestion).
+* Student-t with ν degrees of freedom, the heavy-tailed form that down-weights outliers
+  (Lange, Little & Taylor, J. Am. Stat. Assoc. 84, 881 (1989); ν = 4 by default, their
+  suggestion). A stated u_i is a standard uncertainty, i.e. a standard deviation (JCGM
+  100:2008), so the t scale is u_i √((ν − 2)/ν): the t distribution of each point then has
+  the standard deviation u_i (its variance is scale² ν/(ν − 2)). ν must exceed 2.
 
 Every measured kind (μ, k, D(T, p), B(T)) enters through :data:`PROPERTY_PREDICTORS`: a kind
 added there and to the readers joins the same likelihood.
@@ -85,8 +87,9 @@ class LogLikelihood:
                  extra_scatter: bool = False, calibrate_sources: dict | None = None):
         if form not in LIKELIHOOD_FORMS:
             raise FitError(f"unknown likelihood '{form}'; expected one of {', '.join(LIKELIHOOD_FORMS)}")
-        if not (nu > 0 and math.isfinite(nu)):
-            raise FitError(f"Student-t degrees of freedom must be positive, got {nu}")
+        if not (nu > 2 and math.isfinite(nu)):
+            raise FitError(f"Student-t degrees of freedom must exceed 2, got {nu}: the stated uncertainties are "
+                           "standard deviations, and a t distribution with ν ≤ 2 has none")
         unknown = sorted(set(data.kinds) - set(PROPERTY_PREDICTORS))
         if unknown:
             raise FitError(f"no model for property {', '.join(unknown)} in the likelihood yet")
@@ -294,8 +297,10 @@ class LogLikelihood:
             ll = -0.5 * np.sum(r2 + np.log(2 * np.pi * var), axis=1)
         else:
             nu = self.nu
+            shrink = (nu - 2) / nu  # scale² = u² (ν − 2)/ν: the t's standard deviation is u
             const = gammaln((nu + 1) / 2) - gammaln(nu / 2) - 0.5 * math.log(nu * math.pi)
-            ll = np.sum(const - 0.5 * np.log(var) - (nu + 1) / 2 * np.log1p(r2 / nu), axis=1)
+            ll = np.sum(const - 0.5 * np.log(var * shrink) - (nu + 1) / 2 * np.log1p(r2 / (shrink * nu)),
+                        axis=1)
         return np.where(np.isfinite(ll), ll, -np.inf)
 
     def chi2_by_source(self, x) -> dict:
@@ -320,6 +325,8 @@ class LogLikelihood:
              "model": "measured value = calibration factor x Chapman-Enskog prediction"}
         if self.form == "student_t":
             d["degrees_of_freedom"] = self.nu
+            d["scale"] = ("u_i sqrt((nu - 2)/nu), so that each point's t distribution has the stated standard "
+                          "uncertainty u_i as its standard deviation")
             d["reference"] = "Lange, Little & Taylor, J. Am. Stat. Assoc. 84, 881 (1989)"
         return d
 
