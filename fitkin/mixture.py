@@ -139,7 +139,8 @@ class GasPair:
             raise FitkinError(
                 f"{self.names[0]} was fitted with {p1.describe()} and {self.names[1]} with {p2.describe()}: "
                 "the combining rules give σ12 and ε12 but not the shape of the unlike potential; "
-                "choose it with shape=... (e.g. shape='lj' or shape='mie:13')")
+                "choose it with --pair-shape on the command line (e.g. --pair-shape lj, mie:13 or a potential "
+                "table file), or shape=... in Python")
         m1, m2 = self.first._model, self.second._model
         if order is None:
             order = m1.order if m1.order == m2.order else 1

@@ -79,6 +79,7 @@ def test_fit_predict_report_with_a_tabulated_potential(tmp_path, capsys):
     cap = capsys.readouterr()
     assert code == 0, cap.err
     assert "pair.txt (tabulated)" in cap.out and "tabulated potential" in cap.out
+    assert "kept ≥" not in cap.out       # the table reaches T* = 65: it does not limit ε/k here
     rec = json.loads((out / "parameters.json").read_text(encoding="utf-8"))
     lj = json.loads((out / "parameters-lj.json").read_text(encoding="utf-8"))
     assert rec["potential"]["name"] == "tabulated" and rec["potential"]["label"] == "pair.txt (tabulated)"

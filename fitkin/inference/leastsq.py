@@ -192,8 +192,12 @@ def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(),
     )
     result = replace(result, extra={**result.extra, "parameter_problems": parameter_problems(result)})
     warnings = diagnose(result)
+    # a tabulated potential whose wall caps T* also caps ε/k from below: say so when it bites
+    # (ε/k near that floor, or pushed to a bound), not when the optimum lies well inside
     reach = model.transport(shape0 or None).t_star_range_note
-    if reach and np.isclose(eps_lo, data.temperature.max() / t_star_range[1], rtol=1e-3):
+    eps_fit = result.parameters["epsilon_over_k"].value
+    if reach and np.isclose(eps_lo, data.temperature.max() / t_star_range[1], rtol=1e-3) \
+            and (eps_fit < 1.05 * eps_lo or np.isclose(eps_fit, eps_hi, rtol=1e-4)):
         warnings.append(f"ε/k was kept ≥ {eps_lo:.4g} K so that {data.temperature.max():.4g} K stays inside the "
                         f"computed T* range: {reach}")
     return replace(result, warnings=tuple(warnings))
