@@ -4,10 +4,11 @@ from __future__ import annotations
 import numpy as np
 
 from .errors import FitkinError
+from .formatting import format_estimate, format_interval
 
 from .measurements import SIGNED_KINDS
 
-__all__ = ["format_fit_summary", "format_estimate"]
+__all__ = ["format_fit_summary", "format_estimate", "format_interval"]
 
 _LABELS = {"sigma": "σ", "epsilon_over_k": "ε/k", "n": "n", "alpha": "α"}
 _UNIT_TEXT = {"angstrom": "Å", "K": "K", "1": ""}
@@ -23,14 +24,6 @@ def _potential_text(settings: dict) -> str:
     free = settings.get("free_shape") or []
     text = text if "potential" in text else f"{text} potential"
     return text + (f" ({', '.join(free)} fitted)" if free else "")
-
-
-def format_estimate(value: float, stderr: float) -> str:
-    """'3.6512 ± 0.0041' with the error given to two significant figures."""
-    if not np.isfinite(stderr) or stderr <= 0:
-        return f"{value:.5g}"
-    digits = max(0, -int(np.floor(np.log10(stderr))) + 1)
-    return f"{value:.{digits}f} ± {stderr:.{digits}f}"
 
 
 def format_fit_summary(result, record_path=None, truth: dict | None = None) -> str:

@@ -284,3 +284,23 @@ def test_second_virial_data_get_their_own_figure(tmp_path):
     assert "fig-fit_second_virial" in page.ids or (tmp_path / "figures" / "fit_second_virial.png").is_file()
     assert (tmp_path / "figures" / "fit_second_virial.svg").is_file()
     assert "cm³/mol" in page.all_text
+    assert "for B: measured − fit in cm³/mol" in page.all_text
+
+
+def test_captions_say_how_many_points_are_shown(written):
+    _, _, page = written
+    text = page.all_text
+    # the fixture has 20 viscosity points at 20 distinct temperatures and 11 conductivity points
+    assert "Viscosity: μ = ⅓ρv̄λ against data and fit (12 of 20 points, evenly spaced in temperature" in text
+    assert "Conductivity: k = ⅓C_v v̄λ against data and fit (all 11 points)" in text
+    assert "all 31 points of the properties drawn" in text
+    assert "for B:" not in text  # no B in this report, so its caption says nothing of B
+
+
+def test_intervals_keep_consistent_digits(record):
+    rec = copy.deepcopy(record)
+    rec["parameters"]["sigma"].update(value=3.64655, stderr=0.00431)  # ± 1.96 u = 3.63810 … 3.65500
+    html, _ = build_report(rec)
+    assert "3.6381 – 3.6550" in html and "3.6381 – 3.655<" not in html
+    rec["posterior"] = {"parameters": {"sigma": {"p2_5": 3.63812, "median": 3.6466, "p97_5": 3.65501}}}
+    assert "3.6381 – 3.6550 (median 3.6466)" in build_report(rec)[0]

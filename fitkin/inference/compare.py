@@ -17,7 +17,7 @@ import numpy as np
 from .. import potentials as pots
 from ..errors import FitkinError
 from ..measurements import SIGNED_KINDS
-from ..summary import format_estimate
+from ..formatting import format_estimate
 from .fitdata import FitData
 from .leastsq import fit_least_squares
 from .result import FitResult

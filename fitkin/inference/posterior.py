@@ -21,6 +21,7 @@ from pathlib import Path
 import numpy as np
 
 from ..errors import FitkinError, ParameterFileError
+from ..formatting import format_interval
 from ..io.atomic import write_bytes_atomic
 from .diagnostics import Diagnostics
 
@@ -140,8 +141,8 @@ class Posterior:
                  + self.convergence_message]
         for n, s in self.summary().items():
             unit = {"angstrom": "Å", "1": ""}.get(s["unit"], s["unit"])
-            lines.append(f"  {n:<24s} {s['median']:.6g} {unit}   68 %: [{s['p16']:.6g}, {s['p84']:.6g}]   "
-                         f"95 %: [{s['p2_5']:.6g}, {s['p97_5']:.6g}]")
+            lo95, hi95, lo68, hi68, med = format_interval(s["p2_5"], s["p97_5"], s["p16"], s["p84"], s["median"])
+            lines.append(f"  {n:<24s} {med} {unit}   68 %: [{lo68}, {hi68}]   95 %: [{lo95}, {hi95}]")
         if "sigma" in self.names and "epsilon_over_k" in self.names:
             r = self.correlation[self.names.index("sigma"), self.names.index("epsilon_over_k")]
             lines.append(f"  correlation(σ, ε/k) = {r:+.3f}")

@@ -141,5 +141,7 @@ def report_findings(record: dict, model=None) -> list[Finding]:
                            f"{z:+.1f} u")
     if far:
         findings.append(Finding("warning", f"{len(far)} point(s) lie more than {OUTLIER_Z:g} u from the fit: "
-                                           + "; ".join(far[:6]) + (" …" if len(far) > 6 else "")))
+                                           + "; ".join(far[:6]) + (f" … (the first 6 of {len(far)} listed; all are "
+                                                                   "in the parameter file's residuals)"
+                                                                   if len(far) > 6 else "")))
     return sorted(findings, key=lambda f: f.level != "warning")

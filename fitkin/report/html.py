@@ -17,7 +17,7 @@ import numpy as np
 from .. import __version__
 from ..errors import OutOfRangeError, OutputExistsError
 from ..io.atomic import check_can_write, write_bytes_atomic, write_text_atomic
-from ..summary import format_estimate
+from ..formatting import format_estimate
 from . import figures as fg
 from . import style as st
 from .bands import RecordModel
@@ -88,9 +88,12 @@ def _figures(ctx: ReportContext) -> None:
                        f"extrapolated. Below: the band's half-widths relative to the fit."
                        + "".join(f" {t[0].upper()}{t[1:]}." for t in ctx.curve_stops))
     if any(r.get("property") in st.DISPLAY for r in rec.get("residuals") or []):
+        has_b = any(r.get("property") == "second_virial" for r in rec.get("residuals") or [])
+        n_points = sum(r.get("property") in st.DISPLAY for r in rec.get("residuals") or [])
         ctx.add_figure("deviations", fg.deviation_figure(rec, ctx.curves),
-                       f"Deviations 100 (measured − fit)/fit against temperature (for B: measured − fit in cm³/mol), "
-                       f"one marker per source ({bars}); "
+                       "Deviations 100 (measured − fit)/fit against temperature"
+                       + (" (for B: measured − fit in cm³/mol)" if has_b else "")
+                       + f"; all {n_points} points of the properties drawn, one marker per source ({bars}); "
                        "shaded: the fit's 95 % band.")
     sampled = bool(model.samples)
     if not rec["parameters"]["epsilon_over_k"].get("varied", True):

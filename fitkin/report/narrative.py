@@ -22,6 +22,13 @@ def _thin(n: int) -> np.ndarray:
     return np.unique(np.round(np.linspace(0, n - 1, MAX_COMPARISON_ROWS)).astype(int))
 
 
+def _shown(shown: int, total: int, what: str) -> str:
+    """'all 8 points' or '12 of 40 points, evenly spaced in temperature, both ends kept'."""
+    if shown >= total:
+        return f"all {total} {what}"
+    return f"{shown} of {total} {what}, evenly spaced in temperature, both ends kept"
+
+
 def elementary_section(ctx: ReportContext) -> Section | None:
     """Elementary mean-free-path theory beside the data and the Chapman–Enskog fit."""
     comp = ctx.comparison
@@ -37,11 +44,9 @@ def elementary_section(ctx: ReportContext) -> Section | None:
     rows = [[f"{sc.temperature[i]:.1f}", "—" if hs else f"{sc.reduced_temperature[i]:.3f}", f"{sc.diameter[i] * 1e10:.3f}",
              f"{sc.mean_speed[i]:.1f}", sci(sc.number_density[i]), f"{sc.mean_free_path[i] * 1e9:.1f}",
              f"{sc.mean_free_path[i] / sc.diameter[i]:.0f}"] for i in idx]
-    parts.append("<h3>Molecular scales</h3>")
+    parts.append(f"<h3>Molecular scales ({escape(_shown(len(idx), sc.temperature.size, 'measured temperatures'))})</h3>")
     parts.append(table(["T [K]", "T*", "d [Å]", "v̄ = √(8kT/πm) [m/s]", "n [1/m³]", "λ [nm]", "λ/d"], rows,
                        text_columns=()))
-    if len(idx) < sc.temperature.size:
-        parts.append(f'<p class="small">{len(idx)} of {sc.temperature.size} measured temperatures shown.</p>')
     names = {"viscosity": ("μ", "µPa·s", 1e6, "⅓ρv̄λ"), "conductivity": ("k", "mW/(m·K)", 1e3, "⅓C_v v̄λ")}
     for kind, c in comp.properties.items():
         sym, unit, scale, formula = names[kind]
@@ -50,7 +55,8 @@ def elementary_section(ctx: ReportContext) -> Section | None:
         rows = [[f"{c.temperature[i]:.1f}", c.source[i], f"{c.measured[i] * scale:#.4g}",
                  f"{c.fitted[i] * scale:#.4g}", f"{c.elementary[i] * scale:#.4g}", f"{c.measured_over_elementary[i]:.3f}",
                  f"{c.fitted_over_elementary[i]:.3f}"] for i in sel]
-        parts.append(f"<h3>{escape(kind.capitalize())}: {sym} = {formula} against data and fit</h3>")
+        parts.append(f"<h3>{escape(kind.capitalize())}: {sym} = {formula} against data and fit "
+                     f"({escape(_shown(sel.size, order.size, 'points'))})</h3>")
         parts.append(table(["T [K]", "source", f"measured [{unit}]", f"Chapman–Enskog fit [{unit}]",
                             f"{formula} [{unit}]", "measured / elementary", "fit / elementary"], rows,
                            text_columns=(1,)))

@@ -14,7 +14,7 @@ from html import escape
 import numpy as np
 from scipy import stats
 
-from ..summary import format_estimate
+from ..formatting import format_estimate, format_interval
 from . import style as st
 
 __all__ = ["Section", "ReportContext", "table", "figure_html", "parameters_section", "statistics_section",
@@ -138,12 +138,14 @@ def _interval(record, name):
     if isinstance(pct, dict):
         lo, med, hi = pct.get("p2_5"), pct.get("median"), pct.get("p97_5")
         if all(isinstance(v, (int, float)) for v in (lo, med, hi)):
-            return f"{lo:.5g} – {hi:.5g} (median {med:.5g})", "posterior percentiles 2.5–97.5 %"
+            a, b, m = format_interval(lo, hi, med)
+            return f"{a} – {b} (median {m})", "posterior percentiles 2.5–97.5 %"
     p = record["parameters"][name]
     u = p.get("stderr")
     if u is None or not np.isfinite(u) or not p.get("varied", True):
         return "—", ""
-    return f"{p['value'] - 1.96 * u:.5g} – {p['value'] + 1.96 * u:.5g}", "value ± 1.96 u"
+    a, b = format_interval(p["value"] - 1.96 * u, p["value"] + 1.96 * u, scale=u)
+    return f"{a} – {b}", "value ± 1.96 u"
 
 
 def parameter_status(entry: dict) -> str:
