@@ -4,6 +4,7 @@ from __future__ import annotations
 import numpy as np
 
 from .errors import FitkinError
+from .fitted import potential_from_record
 from .formatting import format_estimate, format_interval
 
 from .measurements import SIGNED_KINDS
@@ -15,7 +16,6 @@ _UNIT_TEXT = {"angstrom": "Å", "K": "K", "1": ""}
 
 
 def _potential_text(settings: dict) -> str:
-    from .fitted import potential_from_record
     try:
         text = potential_from_record(settings.get("potential_record") or {
             "name": settings.get("potential"), "shape_parameters": settings.get("shape_parameters") or {}}).describe()

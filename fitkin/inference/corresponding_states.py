@@ -10,6 +10,7 @@ import math
 from dataclasses import dataclass
 
 from ..errors import FitError
+from ..units import parse_quantity
 from .priors import Gaussian
 
 __all__ = ["CriticalConstants", "tee_gotoh_stewart", "bird_stewart_lightfoot",
@@ -168,7 +169,6 @@ def parse_critical_constants(text: str) -> CriticalConstants:
     Keys: Tc, Pc, Vc (any unit pint reads, e.g. ``cm3/mol``) and omega (acentric factor,
     a bare number). Units are parsed by :func:`fitkin.units.parse_quantity`.
     """
-    from ..units import parse_quantity
     values = {}
     for item in str(text).split(","):
         if not item.strip():

@@ -27,8 +27,10 @@ import math
 import numpy as np
 from scipy.special import gammaln
 
+from ..collision import tables
 from ..errors import FitError, OutOfRangeError
 from ..measurements import SIGNED_KINDS
+from ..potentials import ExpSix, Mie
 from .fitdata import FitData
 from .model import ANGSTROM, ForwardModel, second_virial_coefficient
 from .priors import Gaussian, Uniform
@@ -363,8 +365,6 @@ def _shape_stencil(model: ForwardModel):
     interpolate on, for one free shape parameter of a Mie or exp-6 potential; else None."""
     if len(model.free_shape) != 1:
         return None
-    from ..collision import tables
-    from ..potentials import ExpSix, Mie
     name, pot = model.free_shape[0], model.potential
     if isinstance(pot, Mie) and name == "n" and type(pot) is Mie:
         return name, tables.MIE_N_STEP, float(pot.m), 1, 10**6

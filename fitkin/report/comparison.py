@@ -31,7 +31,11 @@ from dataclasses import dataclass, field
 import numpy as np
 from scipy import constants
 
+from ..errors import GasError
+from ..species import parse_formula
+
 from ..theory import elementary as el
+from .bands import RecordModel
 
 __all__ = ["HARD_SPHERE_VISCOSITY_RATIO", "HARD_SPHERE_CONDUCTIVITY_RATIO", "EUCKEN_ELEMENTARY",
            "EUCKEN_CHAPMAN_ENSKOG", "MolecularScales", "PropertyComparison", "ElementaryComparison",
@@ -169,7 +173,6 @@ def elementary_comparison(record: dict, pressure: float = 101325.0, model=None,
     cv_molecule : heat capacity per molecule in J/K for ⅓C_v v̄ λ; default (3/2)k, the
         translational value (exact for a monatomic gas).
     """
-    from .bands import RecordModel
     model = model if model is not None else RecordModel(record)
     m = model.molar_mass / constants.N_A
     sigma = model.theta["sigma"] * 1e-10
@@ -232,8 +235,6 @@ def _atom_count(record: dict) -> int | None:
     formula = (record.get("gas") or {}).get("formula")
     if not formula:
         return None
-    from ..errors import GasError
-    from ..species import parse_formula
     try:
         return sum(parse_formula(formula).values())
     except GasError:  # an odd formula must not stop the report

@@ -13,6 +13,7 @@ from matplotlib.figure import Figure
 from matplotlib.lines import Line2D
 from matplotlib.patches import Patch
 from scipy import stats
+from scipy.ndimage import gaussian_filter
 
 from ..measurements import SIGNED_KINDS
 from . import style as st
@@ -231,7 +232,6 @@ def _ellipse(mean, cov, probability, n=240):
 
 
 def _density_levels(x, y, levels, bins=48):
-    from scipy.ndimage import gaussian_filter
     H, xe, ye = np.histogram2d(x, y, bins=bins)
     H = gaussian_filter(H, 1.1)
     flat = np.sort(H.ravel())[::-1]

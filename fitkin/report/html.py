@@ -17,6 +17,7 @@ import numpy as np
 from .. import __version__
 from ..errors import OutOfRangeError, OutputExistsError
 from ..io.atomic import check_can_write, write_bytes_atomic, write_text_atomic
+from ..io.parameter_file import read_parameter_file
 from ..formatting import format_estimate
 from . import figures as fg
 from . import style as st
@@ -309,7 +310,6 @@ def report_from_parameter_file(parameters, out_dir=None, *, force: bool = False,
     ``out_dir`` defaults to the parameter file's folder. Raises
     :class:`fitkin.errors.ParameterFileError` for an unreadable file.
     """
-    from ..io.parameter_file import read_parameter_file
     path = Path(parameters)
     record = read_parameter_file(path)
     return write_report(record, path.parent if out_dir is None else out_dir, force=force, record_path=path,

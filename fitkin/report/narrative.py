@@ -7,6 +7,8 @@ from html import escape
 import numpy as np
 
 from .. import __version__
+from ..fitted import BAND_DRAWS, FittedGas
+from .bands import POSTERIOR_BAND_DRAWS, REPORT_SEED
 from .comparison import EUCKEN_CHAPMAN_ENSKOG, EUCKEN_ELEMENTARY
 from .sections import ReportContext, Section, figure_html, potential_text, sci, table
 
@@ -80,7 +82,6 @@ def elementary_section(ctx: ReportContext) -> Section | None:
 
 
 def _band_seed() -> str:
-    from ..fitted import BAND_DRAWS, FittedGas
     try:
         seed = inspect.signature(FittedGas._draws).parameters["seed"].default
     except (KeyError, ValueError, TypeError):
@@ -90,7 +91,6 @@ def _band_seed() -> str:
 
 def provenance_section(ctx: ReportContext) -> Section:
     """fitkin version, dates, data files with hashes, model settings, seeds."""
-    from .bands import POSTERIOR_BAND_DRAWS, REPORT_SEED
     r = ctx.record
     prov = r.get("provenance") or {}
     theory = r.get("theory") or {}

@@ -16,6 +16,8 @@ from scipy import stats
 
 from ..formatting import format_estimate, format_interval
 from . import style as st
+from .checks import source_statistics
+from .figures import figure_bytes
 
 __all__ = ["Section", "ReportContext", "table", "figure_html", "parameters_section", "statistics_section",
            "OPTIONAL_SECTIONS", "LABELS", "UNIT_TEXT", "potential_text", "sci", "parameter_status",
@@ -84,7 +86,6 @@ class ReportContext:
         self.figures[name] = (fig, caption)
 
     def png_of(self, name: str) -> bytes:
-        from .figures import figure_bytes
         if name not in self.png:
             self.png[name] = figure_bytes(self.figures[name][0], "png")
         return self.png[name]
@@ -189,7 +190,6 @@ def parameters_section(ctx: ReportContext) -> Section:
 
 def statistics_section(ctx: ReportContext) -> Section:
     """χ², deviations overall, per property and per source, and the optimiser's account."""
-    from .checks import source_statistics
     s = ctx.record.get("statistics") or {}
     prob = chi2_probability(s)
     rows = [["χ² / degrees of freedom", f"{_fmt(s.get('chi2'))} / {s.get('dof', '—')}"],
