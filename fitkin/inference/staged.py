@@ -7,7 +7,9 @@ parameters. This module fits in stages (see :func:`fit_with_conductivity`):
 
 1. σ, ε/k (and shape) from every kind except conductivity (the "potential fit");
 2. the free internal-energy parameters from the conductivity alone, σ, ε/k and shape fixed
-   at stage 1 (a two-stage result);
+   at stage 1 (a two-stage result); when fitkin chose the free set (``internal`` "auto" or a
+   model name), parameters whose standard error exceeds :data:`UNDETERMINED_SHARE` of their
+   allowed range are held at their defaults, one at a time, least determined first;
 3. optionally the full joint fit, started from stages 1 and 2, so the optimiser stays in the
    basin the potential data choose.
 
@@ -26,7 +28,7 @@ import numpy as np
 from ..errors import FitError
 from ..species import Gas
 from .fitdata import FitData
-from .fit_checks import diagnose
+from .fit_checks import diagnose, parameter_problems
 from .leastsq import fit_least_squares, resolve_internal
 from .model import ForwardModel, with_shape
 from .result import FitResult
@@ -39,6 +41,11 @@ __all__ = ["FIT_MODES", "fit_with_conductivity", "consistency", "subset", "SHIFT
 FIT_MODES = ("joint", "two_stage", "plain")
 #: A shift of ε/k or σ beyond this many standard errors of the potential fit is flagged.
 SHIFT_WARNING = 2.0
+#: An internal parameter whose stage-2 standard error exceeds this share of its allowed range
+#: is not determined by the conductivity; when fitkin chose the free set it is then held at its
+#: default (common practice: a standard error of a quarter of the physically allowed range
+#: means the data add little to the bounds).
+UNDETERMINED_SHARE = 0.25
 
 
 def subset(data: FitData, mask) -> FitData:
@@ -99,6 +106,38 @@ def _stage_internal(data, gas, potential, free_shape, internal, first: FitResult
                              start={**fixed})
 
 
+def _undetermined(result: FitResult, internal) -> str | None:
+    """The free internal parameter the conductivity determines least, or None when every one
+    is determined: one the fit checks call failed (:func:`~fitkin.inference.fit_checks.parameter_problems`:
+    at a bound, no finite standard error, or a standard error large against its value), or
+    whose standard error exceeds :data:`UNDETERMINED_SHARE` of its allowed range."""
+    problems = parameter_problems(result)
+    worst, name = 0.0, None
+    for n in internal.parameter_names:
+        lo, hi = internal.bounds[n]
+        err, value = result.stderr(n), result.value(n)
+        share = err / (hi - lo) if np.isfinite(err) else np.inf
+        if n not in problems and share <= UNDETERMINED_SHARE:
+            continue
+        score = np.inf if not np.isfinite(err) else max(share, err / max(abs(value), 1e-12))
+        if name is None or score > worst:
+            worst, name = score, n
+    return name
+
+
+def _prune(data, gas, potential, free_shape, internal, first, kw):
+    """Stage 2, dropping (holding at their defaults) the parameters the conductivity cannot
+    determine, one at a time, least determined first. Returns (stage-2 result, model, dropped)."""
+    dropped = []
+    while True:
+        second = _stage_internal(data, gas, potential, free_shape, internal, first, kw)
+        name = _undetermined(second, internal)
+        if name is None or len(internal.parameter_names) <= 1:
+            return second, internal, dropped
+        dropped.append(name)
+        internal = internal.with_free(tuple(n for n in internal.parameter_names if n != name))
+
+
 def _two_stage_result(data, gas, potential, free_shape, internal, first, second, kw) -> FitResult:
     theta = {**first.theta(), **{n: second.value(n) for n in internal.parameter_names}}
     model = ForwardModel(gas=gas, potential=potential, free_shape=tuple(free_shape), order=kw["order"],
@@ -154,9 +193,13 @@ def fit_with_conductivity(data: FitData, gas: Gas, potential=None, *, free_shape
     if mode == "plain" or not _needs_stages(data, model):
         return fit_least_squares(data, gas, potential, free_shape=free_shape, internal=model, **kw)
     first = _stage_potential(data, gas, potential, free_shape, kw)
-    second = _stage_internal(data, gas, potential, free_shape, model, first, kw)
+    if isinstance(internal, str):  # the free set was fitkin's choice: keep only what k determines
+        second, model, dropped = _prune(data, gas, potential, free_shape, model, first, kw)
+    else:  # the user's choice stands (the fit checks flag what the data do not determine)
+        second, dropped = _stage_internal(data, gas, potential, free_shape, model, first, kw), []
     stages = {"potential_fit": {n: [p.value, p.stderr] for n, p in first.parameters.items() if p.vary},
-              "internal_fit": {n: [second.value(n), second.stderr(n)] for n in model.parameter_names}}
+              "internal_fit": {n: [second.value(n), second.stderr(n)] for n in model.parameter_names},
+              "held_fixed_as_undetermined": dropped}
     two = _two_stage_result(data, gas, potential, free_shape, model, first, second, kw)
     start = {**first.theta(), **{n: second.value(n) for n in model.parameter_names}}
     joint = fit_least_squares(data, gas, potential, free_shape=free_shape, internal=model, start=start, **kw)
@@ -196,6 +239,9 @@ def summary_lines(result: FitResult) -> list[str]:
              f"χ²/ν = {alt.get('reduced_chi2', float('nan')):.3g}",
              "  " + rec["conductivity_consistency"]["message"]]
     internal = result.model_settings.get("internal_energy") or {}
+    dropped = (rec.get("stages") or {}).get("held_fixed_as_undetermined") or []
+    if dropped:
+        lines.append("  not determined by the conductivity, so held at their defaults: " + ", ".join(dropped))
     if internal.get("fixed"):
         lines.append(f"  internal-energy parameters fixed (not determined by these data): "
                      + ", ".join(f"{n} = {internal['values'][n]:g}" for n in internal["fixed"]))
