@@ -59,3 +59,19 @@ def test_order_beyond_six_is_refused_up_front(tmp_path, capsys, order3):
     err = capsys.readouterr().err
     assert "--order" in err and "1, 2, 3, 4, 5, 6" in err
     assert not (tmp_path / "fit").exists()
+
+
+@pytest.mark.parametrize("extra, expected", [([], "add --order 1"), (["--order", "1", "--potential", "mie"],
+                                                                     "--potential lj only")])
+def test_neufeld_messages_speak_command_line(tmp_path, capsys, order3, extra, expected):
+    files, _ = order3
+    code = main(["fit", files[0], "--formula", "Ar", "--collision", "neufeld", *extra, "--out", str(tmp_path / "f")])
+    err = capsys.readouterr().err
+    assert code == 2 and expected in err and "Traceback" not in err
+
+
+def test_neufeld_at_first_order_runs(tmp_path, capsys, order3):
+    files, _ = order3
+    code = main(["fit", files[0], "--formula", "Ar", "--collision", "neufeld", "--order", "1", "--no-report",
+                 "--out", str(tmp_path / "f")])
+    assert code == 0, capsys.readouterr().err

@@ -51,10 +51,13 @@ class TransportModel:
                               f"brackets and collision integrals fitkin has), got {self.order!r}")
         if self.collision == "neufeld":
             if getattr(self.potential, "name", None) != "lj":
-                raise FitkinError("the Neufeld correlation exists only for the Lennard-Jones 12-6 potential")
+                raise FitkinError("the Neufeld correlation exists only for the Lennard-Jones 12-6 potential: use "
+                                  "--collision neufeld with --potential lj only (in Python: potential=LennardJones())")
             if self.order != 1:
-                raise FitkinError("the Neufeld correlation gives only Ω(1,1)* and Ω(2,2)*: use order=1 "
-                                  "with it, or collision='computed' for higher approximations")
+                raise FitkinError(f"the Neufeld correlation gives only Ω(1,1)* and Ω(2,2)*, enough for the first "
+                                  f"approximation only: add --order 1 to --collision neufeld, or drop --collision "
+                                  f"neufeld for order {self.order} with collision integrals computed from the "
+                                  "potential (in Python: order=1, or collision='computed')")
 
     # -- collision integrals -------------------------------------------------------------
     @cached_property
