@@ -22,7 +22,7 @@ from .inference.compare import PotentialChoice, comparison_rows, format_comparis
 from .inference.fitdata import FitData
 from .inference.compare_internal import compare_conductivity_models, format_conductivity_comparison
 from .inference.model import is_monatomic
-from .inference.staged import fit_with_conductivity, summary_lines
+from .inference.staged import fit_with_conductivity, fitted_internal_model, summary_lines
 from .inference.fit_checks import require_determined
 from .inference.sampling import sample_posterior
 from .io.parameter_file import write_parameter_file
@@ -116,7 +116,8 @@ def _sample(data, gas, choice, opts: FitOptions, result):
     if sampling.get("critical") is None and gas.critical is not None and not sampling.get("priors"):
         sampling["critical"] = gas.critical  # the gas file's critical constants give the prior
     return sample_posterior(data, gas, choice.potential, free_shape=choice.free_shape, order=opts.order,
-                            collision=opts.collision, internal=opts.internal, polar=opts.polar, start=result,
+                            collision=opts.collision, internal=fitted_internal_model(result, opts.internal),
+                            polar=opts.polar, start=result,
                             **sampling)
 
 

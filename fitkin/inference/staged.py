@@ -27,6 +27,7 @@ import numpy as np
 
 from ..errors import FitError
 from ..species import Gas
+from ..theory.internal import InternalEnergyTransport
 from .fitdata import FitData
 from .fit_checks import diagnose, parameter_problems
 from .leastsq import fit_least_squares, resolve_internal
@@ -34,7 +35,7 @@ from .model import ForwardModel, with_shape
 from .result import FitResult
 
 __all__ = ["FIT_MODES", "fit_with_conductivity", "consistency", "subset", "SHIFT_WARNING", "conductivity_record",
-           "summary_lines"]
+           "summary_lines", "fitted_internal_model"]
 
 #: How conductivity data are combined with the rest: "joint" (started from the stages),
 #: "two_stage", or "plain" (one joint fit from the grid start, as for a monatomic gas).
@@ -216,6 +217,14 @@ def fit_with_conductivity(data: FitData, gas: Gas, potential=None, *, free_shape
     warnings = list(chosen.warnings) + ([check["message"]] if check["flagged"] and mode == "joint" else [])
     return replace(chosen, warnings=tuple(warnings),
                    extra={**chosen.extra, **extra, "conductivity_fit_mode": mode})
+
+
+def fitted_internal_model(result: FitResult, default="auto"):
+    """The internal-energy model ``result`` was fitted with (its free set as fitted, e.g. after
+    undetermined parameters were held fixed), for a later step such as sampling; ``default``
+    when the result has none."""
+    described = result.model_settings.get("internal_energy")
+    return InternalEnergyTransport.from_description(described) if described else default
 
 
 def conductivity_record(result: FitResult) -> dict | None:
