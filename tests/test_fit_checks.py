@@ -171,3 +171,17 @@ def test_overstated_uncertainties_are_flagged(tmp_path, capsys):
     line = next(x for x in out.splitlines() if "far below 1" in x)
     factor = float(line.split("look overstated about ")[1].split("×")[0])
     assert factor == pytest.approx(1 / np.sqrt(red), rel=0.05) and 3.0 < factor < 6.0
+
+
+def test_narrow_data_with_a_prior_on_epsilon_are_sampled_not_refused(tmp_path, capsys):
+    T = np.linspace(300.0, 300.9, 10)
+    f = viscosity_csv(tmp_path / "v.csv", T, lj_viscosity(T, 3.35, 143.0, noise=0.002))
+    code, out, err = run(capsys, "fit", f, "--formula", "Ar", "--out", tmp_path / "fit", "--no-report", "--sample",
+                         "--seed", "1", "--prior", "epsilon_over_k=gaussian:143,10", "--walkers", "16",
+                         "--max-steps", "1500")
+    assert code == 0, err
+    rec = json.loads((tmp_path / "fit" / "parameters.json").read_text())
+    eps = rec["posterior"]["parameters"]["epsilon_over_k"]
+    assert 100 < eps["median"] < 190  # the prior (143 ± 10 K) fixes what the data cannot
+    ridge = next(x for x in out.splitlines() if "long ridge" in x)
+    assert "another property" not in ridge and "B(T)" in ridge

@@ -206,8 +206,9 @@ def _posterior_warnings(post_samples, names, prior: PriorSet, diagnostics, lik) 
         r = np.corrcoef(post_samples[:, names.index("sigma")], post_samples[:, names.index("epsilon_over_k")])[0, 1]
         if abs(r) > RIDGE_CORRELATION:
             warn.append(f"σ and ε/k lie on a long ridge (posterior correlation {r:+.3f}): the data determine a "
-                        "combination of them, not each; widen the temperature range, add another property, "
-                        "or use an informative (e.g. corresponding-states) prior")
+                        "combination of them, not each; what helps is data over a wider temperature range, "
+                        "second-virial B(T) or self-diffusion data, or an informative prior on ε/k or σ (e.g. "
+                        "corresponding states, --critical)")
     for j, n in enumerate(names):
         lo, hi = prior.priors[n].support
         x = post_samples[:, j]

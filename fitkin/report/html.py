@@ -65,10 +65,16 @@ def _prepare(record: dict, record_path=None, pressure: float = 101325.0) -> Repo
                                             "entered the fit but are "
                                             f"not plotted in this report{rms}; their residuals are in the "
                                             "parameter file"))
+    failed = [n for n, q in record["parameters"].items() if q.get("varied", True) and q.get("determined") is False]
     for kind, c in ctx.curves.items():
         if c.source == "none":
+            why = (f"the parameter draws for the band could not be evaluated ({c.note})" if c.note
+                   else "the parameter file has no usable covariance or samples")
+            if failed:
+                why += (f"; {', '.join(failed)} {'is' if len(failed) == 1 else 'are'} not determined by the data, so "
+                        "draws from the covariance reach values the model does not accept")
             ctx.findings.insert(0, Finding("warning", f"the {kind.replace('_', ' ')} curve carries no uncertainty "
-                                                      f"band: {c.note or 'the parameter file has no usable covariance or samples'}"))
+                                                      f"band: {why}"))
     return ctx
 
 
