@@ -1,4 +1,5 @@
 """Every validation of the table readers: the message names file, row, column and a hint."""
+import csv
 import zipfile
 
 import numpy as np
@@ -280,7 +281,30 @@ def test_zip_that_is_not_a_workbook(tmp_path):
     path = tmp_path / "w.xlsx"
     with zipfile.ZipFile(path, "w") as z:
         z.writestr("hello.txt", "not a workbook")
-    assert_file_error(path, "not a readable .xlsx")
+    assert_file_error(path, "zip archive but not an .xlsx workbook", "hello.txt")
+
+
+def test_opendocument_spreadsheet_is_named(tmp_path):
+    path = tmp_path / "w.xlsx"
+    with zipfile.ZipFile(path, "w") as z:
+        z.writestr("mimetype", "application/vnd.oasis.opendocument.spreadsheet")
+        z.writestr("content.xml", "<x/>")
+    assert_file_error(path, "OpenDocument spreadsheet (.ods)", "save it as .xlsx")
+
+
+def test_invisible_characters_from_a_web_page_are_ignored(tmp_path):
+    path = tmp_path / "web.csv"
+    path.write_text("\u200bT [K],viscosity [\u00b5Pa s]\n300,\u200e22.7\n400\u200b,27.3\n",
+                    encoding="utf-8")
+    table = read_table(path)
+    assert table.get("viscosity").temperature.tolist() == [300.0, 400.0]
+
+
+def test_a_cell_longer_than_the_field_limit_is_named(tmp_path):
+    path = tmp_path / "long.csv"
+    path.write_text("T [K],viscosity [uPa s]\n300,22.7\n400," + "9" * (csv.field_size_limit() + 10) + "\n",
+                    encoding="utf-8")
+    assert_file_error(path, "longer than", "characters", row=3)
 
 
 def test_old_xls_is_refused(tmp_path):

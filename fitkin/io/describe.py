@@ -49,7 +49,12 @@ def _points(series: PropertySeries) -> str:
 def _range(series: PropertySeries) -> str:
     if not len(series):
         return "no temperatures"
-    return f"{np.min(series.temperature):.2f} K to {np.max(series.temperature):.2f} K"
+    return f"{_kelvin(np.min(series.temperature))} K to {_kelvin(np.max(series.temperature))} K"
+
+
+def _kelvin(value: float) -> str:
+    """Two decimals as a lab writes temperatures; significant figures for absurd magnitudes."""
+    return f"{value:.2f}" if abs(value) < 1e6 else f"{value:.6g}"
 
 
 def _unit_origin(kind: str, columns) -> str:

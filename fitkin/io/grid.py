@@ -97,6 +97,10 @@ def _split_text(text: str, path: str) -> CellGrid:
             if len(starts) - consumed > 1:  # e.g. the field-size limit, hit by an open quotation mark
                 raise _open_quote(path, starts[consumed], starts[-1], by_row, grid.delimiter,
                                   closed=False) from None
+            if "field larger than field limit" in str(exc):
+                raise InputError(f"a cell of this row is longer than {csv.field_size_limit()} characters, "
+                                 "the most a table cell may hold", file=path, row=starts[-1],
+                                 hint="is this a table file? check the separators of this row") from None
             raise InputError(f"cannot split the line into cells ({exc})", file=path,
                              row=starts[-1] if starts else None,
                              hint="check for unbalanced quotation marks") from None

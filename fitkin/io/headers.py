@@ -238,7 +238,8 @@ def _resolve_unit(kind, unit_text, override, where, problems, *, key):
     """Unit from the header, else from ``units=``; problems for none, unreadable, or a conflict."""
     if unit_text is None or unit_text == "":
         if override is None:
-            name = str(where.get("column") or key).strip() or key  # the name as the user wrote it
+            written = str(where.get("column") or key).strip()
+            name = (written if written.startswith(("u(", "U(")) else split_header(written)[0]) or key
             examples = ", ".join(f"'{name} [{u}]'" for u in kind.common_units[:2])
             if key.startswith("u(") and kind.role == "property":
                 examples += f", '{name} [%]'"

@@ -9,8 +9,9 @@ from __future__ import annotations
 
 import math
 import re
+import unicodedata
 
-__all__ = ["CellValueError", "detect_decimal_comma", "parse_number", "is_blank"]
+__all__ = ["CellValueError", "detect_decimal_comma", "parse_number", "is_blank", "strip_invisible"]
 
 _POINT = re.compile(r"^[+\-]?(?:\d+\.\d*|\.\d+)(?:[eE][+\-]?\d+)?$")
 _COMMA = re.compile(r"^[+\-]?(?:\d+,\d*|,\d+)(?:[eE][+\-]?\d+)?$")
@@ -27,7 +28,15 @@ class CellValueError(ValueError):
 
 
 def _clean(text: str) -> str:
-    return str(text).strip().replace("\u2212", "-").replace("\u00a0", "")
+    return strip_invisible(str(text)).strip().replace("\u2212", "-").replace("\u00a0", "")
+
+
+def strip_invisible(text: str) -> str:
+    """Text without invisible format characters (zero-width space, byte-order mark, direction
+    marks: Unicode category Cf) that copying from a web page or a PDF leaves in cells."""
+    if text.isascii():
+        return text
+    return "".join(c for c in text if unicodedata.category(c) != "Cf")
 
 
 def is_blank(cell) -> bool:

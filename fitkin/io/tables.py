@@ -35,7 +35,7 @@ from fitkin.io.cells import CellGrid
 from fitkin.io.grid import read_grid
 from fitkin.io.header_checks import require_columns, unit_row_hint
 from fitkin.io.headers import parse_header, parse_unit_overrides
-from fitkin.io.numbers import is_blank
+from fitkin.io.numbers import is_blank, strip_invisible
 from fitkin.measurements import MeasuredTable
 
 __all__ = ["read_table", "read_tables", "DEFAULT_PRESSURE_LIMIT"]
@@ -85,7 +85,7 @@ def read_table(path, *, sheet: str | int | None = None, units: Mapping[str, str]
     if not grid.rows:
         raise _empty(grid, file)
     header_row, header_cells = grid.rows[0]
-    header_cells = ["" if is_blank(c) else str(c).strip() for c in header_cells]
+    header_cells = ["" if is_blank(c) else strip_invisible(str(c)).strip() for c in header_cells]
     while header_cells and not header_cells[-1]:
         header_cells.pop()  # trailing empty cells of spreadsheet exports
     specs, problems, warnings = parse_header(header_cells, row=header_row, file=file,

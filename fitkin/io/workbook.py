@@ -30,6 +30,7 @@ def read_workbook(data: bytes, path: str, *, sheet: str | int | None = None) -> 
     InputError : not a workbook (a zip of something else, damaged), unknown sheet.
     InputProblems : formula cells without a stored value.
     """
+    _check_is_xlsx(data, path)
     try:
         with warnings.catch_warnings():
             warnings.simplefilter("ignore")  # openpyxl warns about styles and extensions
@@ -72,6 +73,24 @@ def read_workbook(data: bytes, path: str, *, sheet: str | int | None = None) -> 
                          else _filled_rows(other)) for other in book.worksheets)
     book.close()
     return grid
+
+
+def _check_is_xlsx(data: bytes, path: str) -> None:
+    """Name what a zip archive is when it is not an .xlsx workbook (OpenDocument, other zips)."""
+    try:
+        with zipfile.ZipFile(io.BytesIO(data)) as archive:
+            names = set(archive.namelist())
+            mimetype = archive.read("mimetype")[:80] if "mimetype" in names else b""
+    except (zipfile.BadZipFile, OSError, ValueError):
+        return  # damaged: openpyxl's reading reports it
+    if mimetype.startswith(b"application/vnd.oasis.opendocument"):
+        kind = "an OpenDocument spreadsheet (.ods)" if b"spreadsheet" in mimetype else "an OpenDocument file"
+        raise InputError(f"this is {kind}, not an .xlsx workbook; fitkin reads .xlsx and text tables",
+                         file=path, hint="save it as .xlsx or export CSV from the spreadsheet program")
+    if "xl/workbook.xml" not in names:
+        shown = ", ".join(sorted(names)[:3]) + (", ..." if len(names) > 3 else "")
+        raise InputError(f"this is a zip archive but not an .xlsx workbook (it holds {shown or 'nothing'})",
+                         file=path, hint="unpack the table from the archive, or save it as .xlsx or CSV")
 
 
 def _filled_rows(ws) -> int:
