@@ -9,10 +9,11 @@ import argparse
 import os
 import sys
 import warnings
-from pathlib import Path
 
 from . import __version__
+from .cli_checks import check_arguments
 from .errors import FitkinError, FitkinWarning, InputProblems
+from .io.atomic import forget_written_paths, written_paths
 
 __all__ = ["main", "build_parser"]
 
@@ -117,7 +118,7 @@ def build_parser() -> argparse.ArgumentParser:
     samp = p.add_argument_group("posterior sampling")
     samp.add_argument("--sample", action="store_true", help="sample the posterior with emcee after the fit")
     samp.add_argument("--walkers", type=int, help="ensemble size (default max(32, 8 × parameters))")
-    samp.add_argument("--max-steps", type=int, default=20000, help="step limit (default 20000)")
+    samp.add_argument("--max-steps", type=int, help="step limit (default 20000)")
     samp.add_argument("--seed", type=int, help="random seed (default: drawn, and recorded)")
     samp.add_argument("--extra-scatter", action="store_true", help="fit an unknown relative extra scatter")
     samp.add_argument("--student-t", action="store_true", help="heavy-tailed likelihood, robust to outliers")
@@ -147,7 +148,7 @@ def build_parser() -> argparse.ArgumentParser:
     mix.add_argument("--x1", metavar="LIST", help="mole fractions of this gas for mixture viscosities, e.g. 0.25,0.5")
     mix.add_argument("--sigma12", help="unlike-pair σ12 (default Lorentz: mean), e.g. '3.6 angstrom'")
     mix.add_argument("--epsilon12", help="unlike-pair ε12/k (default Berthelot: geometric mean), e.g. '150 K'")
-    mix.add_argument("--k12", type=float, default=0.0, help="ε12 = (1 − k12)√(ε1 ε2) (default 0)")
+    mix.add_argument("--k12", type=float, help="ε12 = (1 − k12)√(ε1 ε2) (default 0)")
     mix.add_argument("--pair-shape", help="potential of the unlike pair when the two fits used different shapes")
     p.add_argument("--out", metavar="FILE", help="write here instead of standard output")
     p.add_argument("--force", action="store_true", help="replace an existing FILE")
@@ -166,15 +167,28 @@ def build_parser() -> argparse.ArgumentParser:
     return parser
 
 
+def _left_behind() -> str:
+    """What this run has already written, for the message of a run that stops early."""
+    paths = written_paths()
+    if not paths:
+        return "nothing was written"
+    return f"already written: {', '.join(map(str, paths))}; a rerun into the same place needs --force"
+
+
 def main(argv: list[str] | None = None) -> int:
     parser = build_parser()
-    args = parser.parse_args(argv)
+    try:
+        args = parser.parse_args(argv)
+    except SystemExit as exc:  # argparse has printed its message (or --help, --version)
+        return exc.code if isinstance(exc.code, int) else EXIT_USER
     if args.command is None:
         parser.print_help()
         return EXIT_USER
-    from . import commands
-    handler = getattr(commands, f"run_{args.command}")
+    forget_written_paths()
     try:
+        check_arguments(args)
+        from . import commands
+        handler = getattr(commands, f"run_{args.command}")
         with warnings.catch_warnings():
             warnings.simplefilter("ignore", RuntimeWarning)
             warnings.showwarning = _one_line_warning
@@ -186,10 +200,11 @@ def main(argv: list[str] | None = None) -> int:
             print(f"  - {problem}", file=sys.stderr)
         return EXIT_USER
     except FitkinError as exc:
-        print(f"fitkin {args.command}: error: {exc}", file=sys.stderr)
+        note = f"; {_left_behind()}" if written_paths() else ""
+        print(f"fitkin {args.command}: error: {exc.for_command_line()}{note}", file=sys.stderr)
         return EXIT_USER
     except KeyboardInterrupt:
-        print("fitkin: interrupted", file=sys.stderr)
+        print(f"fitkin {args.command}: interrupted (Ctrl-C); {_left_behind()}", file=sys.stderr)
         return 130
     except Exception as exc:  # a bug, not bad input: short message, traceback on request
         if os.environ.get("FITKIN_DEBUG"):

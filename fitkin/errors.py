@@ -17,11 +17,26 @@ __all__ = [
     "ParameterFileError",
     "OutputExistsError",
     "FitkinWarning",
+    "OutputError",
+    "UsageError",
 ]
 
 
 class FitkinError(Exception):
-    """Base class of every error fitkin raises for bad input or an impossible request."""
+    """Base class of every error fitkin raises for bad input or an impossible request.
+
+    ``command_line`` is the same message in the words of the command line (option names such
+    as ``--order 1`` where the Python message says ``order=1``); the command line prints it
+    instead of the Python message when one is given (see :meth:`for_command_line`).
+    """
+
+    def __init__(self, *args, command_line: str | None = None):
+        super().__init__(*args)
+        self.command_line = command_line
+
+    def for_command_line(self) -> str:
+        """The message as the command line should print it."""
+        return self.command_line or str(self)
 
 
 class InputError(FitkinError):
@@ -94,9 +109,18 @@ class ParameterFileError(FitkinError):
     """A parameter file that cannot be read: missing, damaged, or written by a newer schema."""
 
 
-class OutputExistsError(FitkinError):
+class OutputError(FitkinError):
+    """An output that cannot be written where it was asked for (a file in the way of a folder,
+    a folder that is not writable, a folder given where a file is expected)."""
+
+
+class OutputExistsError(OutputError):
     """An output that already exists and would be overwritten without ``--force``."""
 
 
 class FitkinWarning(UserWarning):
     """Something a user should know that does not stop the run (the command line prints one line)."""
+
+
+class UsageError(FitkinError):
+    """A command-line option value or combination of options that cannot work."""

@@ -7,20 +7,67 @@ array([2.27e-05, 3.42e-05])
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from pathlib import Path
 
 import numpy as np
+import pandas as pd
 
-from .errors import FitkinError, OutOfRangeError, ParameterFileError
-from .inference.model import ANGSTROM
+from .errors import FitkinError, OutOfRangeError, ParameterFileError, UsageError
+from .inference.model import ANGSTROM, ForwardModel, is_monatomic
+from .inference.posterior import posterior_draws, predictive_band
 from .io.parameter_file import read_parameter_file
+from .io.record_check import check_record
 from .potentials import potential_from_record
+from .measurements import SI_UNITS
 from .species import Gas
+from .theory.internal import InternalEnergyTransport
 from .theory.transport import TransportModel
+from .units import ureg
 
 __all__ = ["FittedGas", "load_parameters", "potential_from_record"]
 
 #: Number of parameter draws used for uncertainty bands from the covariance.
 BAND_DRAWS = 400
+_PREDICTABLE = ("viscosity", "conductivity", "self_diffusion", "second_virial")
+
+
+def _temperatures(T) -> np.ndarray:
+    """T as a float array in K, or a :class:`UsageError` saying what was given instead."""
+    try:
+        T = np.atleast_1d(np.asarray(T, dtype=float))
+    except (TypeError, ValueError):
+        raise UsageError(f"temperatures must be numbers in K (or a pint Quantity), got {T!r}") from None
+    if T.size == 0 or np.any(~np.isfinite(T)) or np.any(T <= 0):
+        raise UsageError("temperatures must be finite and above 0 K")
+    return T
+
+
+def _pressure(p) -> float | np.ndarray | None:
+    if p is None:
+        return None
+    try:
+        value = np.asarray(p, dtype=float)
+    except (TypeError, ValueError):
+        raise UsageError(f"pressure must be a number in Pa (or a pint Quantity), got {p!r}") from None
+    if np.any(~np.isfinite(value)) or np.any(value <= 0):
+        raise UsageError(f"pressure must be finite and above 0 Pa, got {p!r}")
+    return value[()]
+
+
+def _rebuild(source, section: str, build):
+    """``build()``, turning a damaged entry of the parameter file into a ParameterFileError."""
+    try:
+        return build()
+    except ParameterFileError:
+        raise
+    except FitkinError as exc:
+        raise ParameterFileError(f"{source}: {section} cannot be used: {exc}") from None
+    except KeyError as exc:
+        raise ParameterFileError(f"{source}: {section}: the entry {exc} is missing (the file is damaged or was "
+                                 "edited by hand; rewrite it with fitkin fit)") from None
+    except (TypeError, ValueError, AttributeError) as exc:
+        raise ParameterFileError(f"{source}: {section} is damaged ({type(exc).__name__}: {exc}); rewrite "
+                                 "it with fitkin fit") from None
 
 
 @dataclass
@@ -39,19 +86,23 @@ class FittedGas:
     _model: TransportModel = field(init=False, repr=False)
 
     def __post_init__(self):
-        from .inference.model import ForwardModel
-        from .theory.internal import InternalEnergyTransport
         r = self.record
-        self.gas = Gas.from_dict(r["gas"])
+        if not isinstance(r, dict):
+            raise ParameterFileError(f"a fitted gas needs a parameter-file record (a dict), got {type(r).__name__}")
+        source = self.path or "the parameter record"
+        check_record(r, source)
+        self.gas = _rebuild(source, "gas", lambda: Gas.from_dict(r["gas"]))
         theory = r["theory"]
         internal = theory.get("internal_energy")
         self.free_shape = list(r["potential"].get("free_shape") or [])
-        self._forward = ForwardModel(
-            gas=self.gas, potential=potential_from_record(r["potential"]), free_shape=tuple(self.free_shape),
+        potential = _rebuild(source, "potential", lambda: potential_from_record(r["potential"]))
+        internal = _rebuild(source, "theory.internal_energy",
+                            lambda: InternalEnergyTransport.from_description(internal) if internal else None)
+        self._forward = _rebuild(source, "theory", lambda: ForwardModel(
+            gas=self.gas, potential=potential, free_shape=tuple(self.free_shape),
             order=int(theory.get("sonine_order") or 1), collision=theory.get("collision_integrals") or "computed",
-            internal=InternalEnergyTransport.from_description(internal) if internal else None,
-            polar=bool(theory.get("polar_correction", False)))
-        self._model = self._forward.transport(self._theta())
+            internal=internal, polar=bool(theory.get("polar_correction", False))))
+        self._model = _rebuild(source, "parameters", lambda: self._forward.transport(self._theta()))
 
     @property
     def forward_model(self):
@@ -72,7 +123,11 @@ class FittedGas:
     @property
     def temperature_range(self) -> tuple[float, float]:
         """Measured temperature range (K) of the fit."""
-        return tuple(self.record["data"]["temperature_range_K"])
+        data = self.record.get("data") or {}
+        if "temperature_range_K" not in data:
+            raise ParameterFileError(f"{self.path or 'the parameter record'}: data.temperature_range_K is missing, "
+                                     "so the measured range (and what is extrapolated) is unknown")
+        return tuple(data["temperature_range_K"])
 
     def _theta(self) -> dict:
         return {k: v["value"] for k, v in self.record["parameters"].items()}
@@ -97,7 +152,6 @@ class FittedGas:
         """'posterior samples' when the fit was sampled and its samples file lies beside the
         parameter file (a changed file is refused when read), else 'covariance' (Gaussian draws
         from the least-squares covariance)."""
-        from pathlib import Path
         post = self.record.get("posterior") or {}
         name = (post.get("samples") or {}).get("file")
         if name and self.path is not None and (Path(self.path).parent / name).is_file():
@@ -116,25 +170,25 @@ class FittedGas:
     @property
     def has_conductivity_model(self) -> bool:
         """False for a polyatomic gas fitted without an internal-energy conductivity model."""
-        from .inference.model import is_monatomic
         return is_monatomic(self.gas) or self._forward.internal is not None
 
     def predict(self, kind: str, T, pressure=None, band: float | None = None):
         """Property ``kind`` ('viscosity', 'conductivity', 'self_diffusion') at temperatures T."""
-        T = np.atleast_1d(np.asarray(T, dtype=float))
-        if np.any(~np.isfinite(T)) or np.any(T <= 0):
-            raise FitkinError("temperatures must be finite and above 0 K")
+        if kind not in _PREDICTABLE:
+            raise UsageError(f"unknown property '{kind}'; expected one of {', '.join(_PREDICTABLE)}")
+        T = _temperatures(T)
+        pressure = _pressure(pressure)
+        if kind == "self_diffusion" and pressure is None:
+            raise UsageError("self-diffusion needs a pressure in Pa (D is inversely proportional to it)")
         if kind == "conductivity" and not self.has_conductivity_model:
             raise FitkinError(f"this fit of '{self.gas.name}' has no model of internal-energy transport, so it "
                               "cannot predict the thermal conductivity of a polyatomic gas; fit conductivity "
                               "data with a gas file that gives the heat capacity (--gas FILE)")
         if band is None:
             return self._evaluate(kind, self._theta(), T, pressure)
-        if not 0 < band < 1:
-            raise FitkinError(f"band must be a probability between 0 and 1, got {band}")
+        if not isinstance(band, (int, float, np.floating)) or not 0 < band < 1:
+            raise UsageError(f"band must be a probability between 0 and 1, got {band!r}")
         if self.band_source == "posterior samples":
-            from pathlib import Path
-            from .inference.posterior import posterior_draws, predictive_band
             draws = posterior_draws(self.record, Path(self.path).parent, max_draws=BAND_DRAWS)
             return predictive_band(draws, kind, T, self._evaluate, band=band, pressure=pressure,
                                    max_draws=BAND_DRAWS)
@@ -172,8 +226,6 @@ class FittedGas:
         ``T`` may be a number/array in K or a pint Quantity of temperature; with ``band`` the
         result is (median, lower, upper) Quantities.
         """
-        from .measurements import SI_UNITS
-        from .units import ureg
         units = {**SI_UNITS, "self_diffusion": "m**2/s"}
         if kind not in units:
             raise FitkinError(f"unknown property '{kind}'; expected one of {', '.join(units)}")
@@ -190,8 +242,7 @@ class FittedGas:
     def table(self, T, pressure: float = 101325.0, band: float | None = None):
         """A pandas DataFrame of μ, k (when modelled), D and B at temperatures T (K), SI columns
         with units in their names, and an ``extrapolated`` flag."""
-        import pandas as pd
-        T = np.atleast_1d(np.asarray(T, dtype=float))
+        T = _temperatures(T)
         columns = {"T [K]": T}
         kinds = [("viscosity", "viscosity [Pa s]", {}), ("conductivity", "conductivity [W/(m K)]", {}),
                  ("self_diffusion", f"self_diffusion at {pressure:g} Pa [m^2/s]", {"pressure": pressure}),

@@ -28,8 +28,9 @@ from __future__ import annotations
 
 import numpy as np
 
-from .errors import FitkinError, OutOfRangeError
+from .errors import FitkinError, OutOfRangeError, UsageError
 from .fitted import FittedGas, load_parameters
+from .inference.compare import parse_potential_choice
 from .inference.model import ANGSTROM, with_shape
 from .potentials import Potential
 from .theory import mixtures as mix
@@ -51,7 +52,6 @@ def _parse_shape(shape) -> Potential:
     if isinstance(shape, Potential):
         return shape
     if isinstance(shape, str):
-        from .inference.compare import parse_potential_choice
         choice = parse_potential_choice(shape)
         if choice.free_shape:
             raise FitkinError(f"pair shape '{shape}': give the shape parameters of the unlike pair "
@@ -59,6 +59,13 @@ def _parse_shape(shape) -> Potential:
         return choice.potential
     raise FitkinError(f"pair shape must be a fitkin potential or a text such as 'lj' or 'mie:13', "
                       f"got {type(shape).__name__}")
+
+
+def _as_floats(values, what: str) -> np.ndarray:
+    try:
+        return np.asarray(values, dtype=float)
+    except (TypeError, ValueError):
+        raise UsageError(f"{what}, got {values!r}") from None
 
 
 def _label(gas: FittedGas, fallback: str) -> str:
@@ -194,9 +201,9 @@ class GasPair:
     # -- checks --------------------------------------------------------------------------
     @staticmethod
     def _temperatures(T) -> np.ndarray:
-        T = np.asarray(T, dtype=float)
+        T = _as_floats(T, "temperatures must be numbers in K")
         if T.size == 0 or np.any(~np.isfinite(T)) or np.any(T <= 0):
-            raise FitkinError("temperatures must be finite and above 0 K")
+            raise UsageError("temperatures must be finite and above 0 K")
         return T
 
     def _omega(self, model: TransportModel, l: int, s: int, T_star):
@@ -221,9 +228,9 @@ class GasPair:
         T in K and p in Pa broadcast against each other; the result has their shape.
         """
         T = self._temperatures(T)
-        p = np.asarray(p, dtype=float)
-        if np.any(~np.isfinite(p)) or np.any(p <= 0):
-            raise FitkinError("pressure must be finite and above 0 Pa")
+        p = _as_floats(p, "pressure must be a number in Pa")
+        if p.size == 0 or np.any(~np.isfinite(p)) or np.any(p <= 0):
+            raise UsageError("pressure must be finite and above 0 Pa")
         T, p = np.broadcast_arrays(T, p)
         t_star = T.ravel() / self.epsilon12_over_k
         omega11 = self._omega(self._pair_first, 1, 1, t_star).reshape(T.shape)
@@ -256,7 +263,7 @@ class GasPair:
         return out.reshape(T.shape)[()]
 
     def _mole_fraction(self, x1) -> np.ndarray:
-        x1 = np.asarray(x1, dtype=float)
+        x1 = _as_floats(x1, "mole fractions must be numbers")
         if x1.size == 0 or np.any(~np.isfinite(x1)) or np.any((x1 < 0) | (x1 > 1)):
             raise FitkinError(f"mole fraction x1 of {self.names[0]} must lie between 0 and 1")
         return x1

@@ -110,7 +110,7 @@ def test_binary_diffusion_with_a_second_fitted_gas(tmp_path, capsys):
 @pytest.mark.parametrize("args, fragment", [
     (["--conductivity-model", "nonsense"], "unknown --conductivity-model"),
     (["--fit-internal", "all"], "leave out --fit-internal"),  # argon: monatomic
-    (["--sample", "--max-steps", "5"], "max_steps"),
+    (["--sample", "--max-steps", "5"], "--max-steps"),
 ])
 def test_bad_fit_options(tmp_path, capsys, args, fragment):
     f = reference_csv(tmp_path / "ar.csv", "Argon", np.linspace(200, 800, 6))

@@ -5,6 +5,9 @@ from pathlib import Path
 
 from .. import demo
 from ..io import read_tables
+from ..io.atomic import check_can_write
+from ..report import REPORT_NAME
+from ..saving import PARAMETERS_NAME, SAMPLES_NAME
 from ..species import Gas
 from ..workflow import FitOptions, run_fit_job
 
@@ -16,6 +19,8 @@ DEMO_SAMPLING = {"max_steps": 20000, "progress": False}
 
 def run_demo(args, out) -> int:
     folder = Path(args.out)
+    for name in (PARAMETERS_NAME, SAMPLES_NAME, REPORT_NAME):
+        check_can_write(folder / name, args.force)  # refuse before writing the demo tables
     print("fitkin demo: SYNTHETIC data of a fictional krypton experiment (see fitkin/demo.py)", file=out)
     paths = demo.write_demo_tables(folder / "data", force=args.force)
     for p in paths:

@@ -5,30 +5,14 @@ import json
 
 import numpy as np
 
+from ..cli_checks import parse_mole_fractions, parse_temperatures
 from ..errors import FitkinError
+from ..fitted import load_parameters
+from ..io.atomic import check_can_write, write_text_atomic
+from ..mixture import GasPair
+from ..units import parse_quantity
 
 __all__ = ["parse_temperatures", "prediction_table", "run_predict"]
-
-
-def parse_temperatures(text: str) -> np.ndarray:
-    """'300,400' or 'start:stop:step' (stop included) → array of K."""
-    try:
-        if ":" in text:
-            parts = [float(x) for x in text.split(":")]
-            if len(parts) != 3 or parts[2] <= 0 or parts[1] < parts[0]:
-                raise ValueError
-            start, stop, step = parts
-            n = int(np.floor((stop - start) / step + 1e-9)) + 1
-            if n > 100000:
-                raise FitkinError(f"--temperatures '{text}' asks for {n} temperatures; at most 100000")
-            values = start + step * np.arange(n)
-        else:
-            values = np.array([float(x) for x in text.split(",") if x.strip()])
-    except ValueError:
-        raise FitkinError(f"--temperatures expects kelvin as '300,400,500' or 'start:stop:step', got '{text}'") from None
-    if values.size == 0 or np.any(~np.isfinite(values)) or np.any(values <= 0):
-        raise FitkinError(f"--temperatures must be positive kelvin values, got '{text}'")
-    return values
 
 
 def _with_band(cols, header, values, band):
@@ -75,27 +59,15 @@ def _pair(args, gas):
         if args.x1:
             raise FitkinError("--x1 gives mole fractions of a mixture: name the second gas with --with OTHER.json")
         return None, None
-    from ..fitted import load_parameters
-    from ..mixture import GasPair
-    from ..units import parse_quantity
     sigma12 = parse_quantity(args.sigma12, "m", name="--sigma12", default_unit="angstrom") if args.sigma12 else None
     eps12 = parse_quantity(args.epsilon12, "K", name="--epsilon12", default_unit="K") if args.epsilon12 else None
-    pair = GasPair(gas, load_parameters(args.with_gas), sigma12=sigma12, epsilon12_over_k=eps12, k12=args.k12,
+    pair = GasPair(gas, load_parameters(args.with_gas), sigma12=sigma12, epsilon12_over_k=eps12, k12=0.0 if args.k12 is None else args.k12,
                    shape=args.pair_shape)
-    x1 = None
-    if args.x1:
-        try:
-            x1 = [float(v) for v in args.x1.split(",") if v.strip()]
-        except ValueError:
-            raise FitkinError(f"--x1 expects mole fractions such as 0.25,0.5, got '{args.x1}'") from None
-    return pair, x1
+    return pair, (parse_mole_fractions(args.x1) if args.x1 else None)
 
 
 def run_predict(args, out) -> int:
-    from ..fitted import load_parameters
-    from ..io.atomic import check_can_write, write_text_atomic
-    from ..units import parse_quantity
-    if args.out:
+    if args.out is not None:
         check_can_write(args.out, args.force)
     gas = load_parameters(args.parameters)
     T = parse_temperatures(args.temperatures)
@@ -120,7 +92,7 @@ def run_predict(args, out) -> int:
         for i in range(len(T)):
             lines.append(",".join(v[i] if isinstance(v[i], str) else f"{v[i]:.6g}" for _, v in cols))
         text = "\n".join(lines) + "\n"
-    if args.out:
+    if args.out is not None:
         write_text_atomic(args.out, text, force=args.force)
         print(f"wrote {len(T)} rows to {args.out}", file=out)
     else:

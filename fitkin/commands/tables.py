@@ -2,6 +2,8 @@
 from __future__ import annotations
 
 from ..errors import InputError
+from ..io import describe_table, read_tables
+from ..units import parse_quantity
 
 __all__ = ["read_from_args", "run_check"]
 
@@ -18,8 +20,6 @@ def _unit_overrides(items: list[str]) -> dict[str, str]:
 
 def read_from_args(args):
     """The MeasuredTables of ``args.files`` with the sheet, unit and pressure-limit options."""
-    from ..io import read_tables
-    from ..units import parse_quantity
     limit = parse_quantity(args.pressure_limit, "Pa", name="--pressure-limit")
     pressure = (parse_quantity(args.table_pressure, "Pa", name="--pressure")
                 if getattr(args, "table_pressure", None) else None)
@@ -29,7 +29,6 @@ def read_from_args(args):
 
 def run_check(args, out) -> int:
     """Print what was read from each file; problems raise and end with a non-zero exit."""
-    from ..io import describe_table
     tables = read_from_args(args)
     for table in tables:
         print("\n".join(describe_table(table)), file=out)

@@ -15,6 +15,8 @@ from __future__ import annotations
 import hashlib
 import io
 import os
+import zipfile
+import zlib
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -26,7 +28,7 @@ from ..io.atomic import write_bytes_atomic
 from .diagnostics import Diagnostics
 
 __all__ = ["Posterior", "save_samples", "load_samples", "posterior_draws", "predictive_band",
-           "SAMPLES_NAME", "PERCENTILES"]
+           "SAMPLES_NAME", "PERCENTILES", "MIN_DRAWS"]
 
 SAMPLES_NAME = "samples.npz"
 #: Reported percentiles: median, ±1σ-equivalent (16/84) and 95 % (2.5/97.5) central intervals.
@@ -209,23 +211,57 @@ def save_samples(posterior: Posterior, path, force: bool = False, relative_to=No
             "draws": int(len(posterior.samples)), "names": list(posterior.names)}
 
 
+#: Fewest draws a samples file must hold to give a band (a few draws give no quantiles).
+MIN_DRAWS = 20
+
+
 def load_samples(reference: dict, base_dir) -> tuple[list[str], np.ndarray]:
-    """(names, samples (draws, dim)) from a record's ``samples`` reference, checking its SHA-256."""
+    """(names, samples (draws, dim)) from a record's ``samples`` reference, checking its SHA-256.
+
+    Refused with :class:`ParameterFileError`: a reference without a SHA-256 (the file could not
+    be checked), a file that does not match it, a damaged file, and draws that cannot give a
+    band (not one column per name, fewer than :data:`MIN_DRAWS` draws, non-finite values, or a
+    parameter without any spread).
+    """
     if not reference or not reference.get("file"):
         raise ParameterFileError("this parameter file references no posterior samples")
     p = Path(base_dir) / reference["file"]
     if not p.is_file():
         raise ParameterFileError(f"the posterior samples file {p} named in the parameter file is missing")
+    expected = reference.get("sha256")
+    if not isinstance(expected, str) or not expected:
+        raise ParameterFileError(f"the parameter file names the posterior samples {p} without their SHA-256 "
+                                 "(posterior.samples.sha256), so they cannot be checked; restore the entry, "
+                                 "or remove posterior.samples.file to use the covariance for bands")
     data = p.read_bytes()
-    digest = hashlib.sha256(data).hexdigest()
-    if reference.get("sha256") and digest != reference["sha256"]:
+    if hashlib.sha256(data).hexdigest() != expected.lower():
         raise ParameterFileError(f"{p} does not match the SHA-256 recorded in the parameter file "
                                  "(the samples were changed or belong to another fit)")
     try:
         with np.load(io.BytesIO(data), allow_pickle=False) as z:
-            return [str(n) for n in z["names"]], np.asarray(z["samples"], dtype=float)
-    except (ValueError, KeyError, OSError) as exc:
-        raise ParameterFileError(f"{p} is not a readable fitkin samples file: {exc}") from None
+            names, samples = [str(n) for n in z["names"]], np.asarray(z["samples"], dtype=float)
+    except (ValueError, KeyError, OSError, EOFError, zipfile.BadZipFile, zlib.error) as exc:
+        raise ParameterFileError(f"{p} is not a readable fitkin samples file "
+                                 f"({type(exc).__name__}: {exc})") from None
+    _check_draws(p, names, samples, reference.get("names"))
+    return names, samples
+
+
+def _check_draws(p: Path, names: list[str], samples: np.ndarray, recorded) -> None:
+    if samples.ndim != 2 or samples.shape[1] != len(names) or not names:
+        raise ParameterFileError(f"{p}: the samples hold an array of shape {samples.shape} for the parameters "
+                                 f"{names}; expected one column per parameter")
+    if recorded is not None and list(recorded) != names:
+        raise ParameterFileError(f"{p}: the samples are of {names}, the parameter file says {list(recorded)}")
+    if len(samples) < MIN_DRAWS:
+        raise ParameterFileError(f"{p} holds {len(samples)} draw(s); a band needs at least {MIN_DRAWS} "
+                                 "(sample again with fitkin fit --sample)")
+    if not np.all(np.isfinite(samples)):
+        raise ParameterFileError(f"{p}: the samples contain values that are not finite numbers")
+    flat = [n for n, sd in zip(names, np.ptp(samples, axis=0)) if sd == 0]
+    if flat:
+        raise ParameterFileError(f"{p}: every draw of {', '.join(flat)} is the same value, so no band can "
+                                 "be computed from these samples")
 
 
 def posterior_draws(record: dict, base_dir, max_draws: int | None = None, seed: int = 0) -> list[dict]:

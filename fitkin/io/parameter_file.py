@@ -22,6 +22,7 @@ from .. import __version__
 from ..errors import ParameterFileError
 from ..measurements import SIGNED_KINDS
 from .atomic import write_text_atomic
+from .record_check import check_record
 
 __all__ = ["SCHEMA_NAME", "SCHEMA_VERSION", "result_to_record", "write_parameter_file", "read_parameter_file"]
 
@@ -115,12 +116,17 @@ def write_parameter_file(record: dict, path, force: bool = False) -> Path:
 
 
 def read_parameter_file(path) -> dict:
-    """Read and check a parameter file; raise :class:`ParameterFileError` with what is wrong."""
+    """Read and check a parameter file; raise :class:`ParameterFileError` with what is wrong
+    (every entry the readers need is checked by :func:`fitkin.io.record_check.check_record`)."""
     p = Path(path)
+    if p.is_dir() and (p / "parameters.json").is_file():
+        raise ParameterFileError(f"{p} is a folder; give the parameter file, e.g. {p / 'parameters.json'}")
     if not p.is_file():
         raise ParameterFileError(f"{p}: no such parameter file")
     try:
         record = json.loads(p.read_text(encoding="utf-8"))
+    except OSError as exc:
+        raise ParameterFileError(f"{p}: cannot read the parameter file ({exc.strerror or exc})") from None
     except (UnicodeDecodeError, json.JSONDecodeError) as exc:
         raise ParameterFileError(f"{p}: not a fitkin parameter file (not valid JSON: {exc})") from None
     if not isinstance(record, dict) or record.get("schema") != SCHEMA_NAME:
@@ -135,7 +141,5 @@ def read_parameter_file(path) -> dict:
     for key in ("gas", "potential", "parameters", "theory"):
         if key not in record:
             raise ParameterFileError(f"{p}: required entry '{key}' is missing")
-    for key in ("sigma", "epsilon_over_k"):
-        if key not in record["parameters"] or record["parameters"][key].get("value") is None:
-            raise ParameterFileError(f"{p}: parameter '{key}' is missing")
+    check_record(record, p)
     return record
