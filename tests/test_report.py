@@ -1,5 +1,6 @@
 """The HTML report: structure, figures, hooks, safety of outputs, and a look in a real browser."""
 import copy
+import hashlib
 import shutil
 import subprocess
 import sys
@@ -188,7 +189,8 @@ def _with_posterior(record, folder, **extra):
     mean = [rec["parameters"][n]["value"] for n in rec["covariance"]["names"]]
     draws = np.random.default_rng(3).multivariate_normal(mean, cov, size=3000)
     np.savez_compressed(folder / "samples.npz", samples=draws, names=np.array(rec["covariance"]["names"]))
-    rec["posterior"] = {"samples": {"file": "samples.npz"}, "seed": 42, **extra}
+    digest = hashlib.sha256((folder / "samples.npz").read_bytes()).hexdigest()  # samples without it are refused
+    rec["posterior"] = {"samples": {"file": "samples.npz", "sha256": digest}, "seed": 42, **extra}
     return rec
 
 
