@@ -227,6 +227,32 @@ def _posterior_warnings(post_samples, names, prior: PriorSet, diagnostics, lik) 
     return warn
 
 
+class _StopOnInterrupt:
+    """The log-probability as emcee calls it, with Ctrl-C carried past emcee.
+
+    emcee prints a traceback (and the walkers' positions) for any exception raised inside the
+    log-probability, Ctrl-C included; this wrapper catches the interruption there, lets emcee
+    finish the step with rejected proposals, and re-raises it from the sampling loop.
+    """
+
+    def __init__(self, log_prob):
+        self.log_prob = log_prob
+        self.interrupted = False
+
+    def __call__(self, x):
+        if self.interrupted:
+            return np.full(len(x), -np.inf)
+        try:
+            return self.log_prob(x)
+        except KeyboardInterrupt:
+            self.interrupted = True
+            return np.full(len(x), -np.inf)
+
+    def raise_if_interrupted(self):
+        if self.interrupted:
+            raise KeyboardInterrupt
+
+
 def sample_posterior(data: FitData, gas: Gas, potential=None, *, free_shape=(), order: int = 3,
                      collision: str = "computed", priors: dict | None = None, critical=None,
                      likelihood: str = "gaussian", nu: float = 4.0, extra_scatter: bool = False,
@@ -301,7 +327,8 @@ def sample_posterior(data: FitData, gas: Gas, potential=None, *, free_shape=(), 
     if walkers < 2 * dim:
         raise FitError(f"{walkers} walkers are too few for {dim} parameters; use at least {2 * dim}")
     pos = initial_ensemble(log_prob, center, scale, walkers, rng)
-    sampler = emcee.EnsembleSampler(walkers, dim, log_prob, vectorize=True)
+    guarded = _StopOnInterrupt(log_prob)
+    sampler = emcee.EnsembleSampler(walkers, dim, guarded, vectorize=True)
     sampler.random_state = np.random.RandomState(seed).get_state()
     display = _Progress(progress, progress_stream)
     state = emcee.State(pos)
@@ -310,6 +337,7 @@ def sample_posterior(data: FitData, gas: Gas, potential=None, *, free_shape=(), 
     try:
         while True:
             for state in sampler.sample(state, iterations=next_check - steps, skip_initial_state_check=True):
+                guarded.raise_if_interrupted()
                 steps += 1
                 display.update(steps, max_steps, f"(next check at {next_check})")
             chain = sampler.get_chain()

@@ -1,0 +1,70 @@
+"""Ctrl-C and failures part-way through a run: one line, nothing half-written, and a rerun that
+is told what blocks it."""
+import pytest
+
+from fitkin.cli import main
+from fitkin.inference.likelihood import LogLikelihood
+from fitkin.io import atomic
+
+from test_user_mistakes import run, write_viscosity_table
+
+
+def _files(folder):
+    return sorted(p.name for p in folder.rglob("*") if p.is_file()) if folder.exists() else []
+
+
+def test_ctrl_c_during_sampling_prints_one_line(tmp_path, capsys, monkeypatch):
+    table = write_viscosity_table(tmp_path / "visc.csv")
+    real = LogLikelihood.__call__
+    calls = {"n": 0}
+
+    def interrupted_later(self, x):
+        calls["n"] += 1
+        if calls["n"] > 5:  # well inside the emcee steps
+            raise KeyboardInterrupt
+        return real(self, x)
+
+    monkeypatch.setattr(LogLikelihood, "__call__", interrupted_later)
+    out_dir = tmp_path / "fit"
+    code, out, err = run(capsys, "fit", table, "--formula", "Ar", "--order", "1", "--sample", "--seed", "1",
+                         "--out", out_dir)
+    assert code == 130
+    assert err.strip().splitlines() == ["fitkin fit: interrupted (Ctrl-C); nothing was written"]
+    assert "Traceback" not in out + err and "emcee" not in out + err
+    assert _files(out_dir) == []
+
+
+def test_ctrl_c_while_writing_leaves_no_temporary_file_and_says_what_is_left(tmp_path, capsys, monkeypatch):
+    table = write_viscosity_table(tmp_path / "visc.csv")
+    real_replace = atomic.os.replace
+
+    def stop_at_the_report(src, dst):
+        if str(dst).endswith(".html"):
+            raise KeyboardInterrupt
+        return real_replace(src, dst)
+
+    monkeypatch.setattr(atomic.os, "replace", stop_at_the_report)
+    out_dir = tmp_path / "fit"
+    code, _, err = run(capsys, "fit", table, "--formula", "Ar", "--order", "1", "--out", out_dir)
+    assert code == 130
+    line, = err.strip().splitlines()
+    assert "interrupted (Ctrl-C); already written:" in line and "parameters.json" in line and "--force" in line
+    assert not [n for n in _files(out_dir) if n.endswith(".tmp")]
+    monkeypatch.setattr(atomic.os, "replace", real_replace)
+    # the rerun is refused with what blocks it, and --force then works
+    code, _, err = run(capsys, "fit", table, "--formula", "Ar", "--order", "1", "--out", out_dir)
+    assert code == 2 and f"an earlier run left {out_dir / 'parameters.json'}; pass --force" in err
+    code, _, err = run(capsys, "fit", table, "--formula", "Ar", "--order", "1", "--out", out_dir, "--force")
+    assert code == 0, err
+
+
+@pytest.mark.parametrize("stage", ["mkstemp", "write"])
+def test_failed_write_removes_its_temporary_file(tmp_path, monkeypatch, stage):
+    target = tmp_path / "out.txt"
+    if stage == "mkstemp":
+        monkeypatch.setattr(atomic.tempfile, "mkstemp", lambda **k: (_ for _ in ()).throw(OSError(28, "No space left on device")))
+    else:
+        monkeypatch.setattr(atomic.os, "fsync", lambda fd: (_ for _ in ()).throw(OSError(28, "No space left on device")))
+    with pytest.raises(atomic.OutputError, match="No space left on device"):
+        atomic.write_text_atomic(target, "data")
+    assert _files(tmp_path) == []
