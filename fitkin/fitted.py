@@ -241,7 +241,12 @@ class FittedGas:
 
     def table(self, T, pressure: float = 101325.0, band: float | None = None):
         """A pandas DataFrame of μ, k (when modelled), D and B at temperatures T (K), SI columns
-        with units in their names, and an ``extrapolated`` flag."""
+        with units in their names, and an ``extrapolated`` flag.
+
+        Each property column is the prediction of the fitted parameters; with ``band`` its
+        ``lower``/``upper`` columns bound the central band of the draws' predictions (the
+        draws' median, which :meth:`predict` returns first, is not the central column).
+        """
         T = _temperatures(T)
         columns = {"T [K]": T}
         kinds = [("viscosity", "viscosity [Pa s]", {}), ("conductivity", "conductivity [W/(m K)]", {}),
@@ -251,12 +256,11 @@ class FittedGas:
             if (kind == "conductivity" and not self.has_conductivity_model) or \
                     (kind == "second_virial" and not self.has_virial_model):
                 continue
-            res = self.predict(kind, T, band=band, **kw)
-            if band is None:
-                columns[name] = res
-            else:
+            columns[name] = self.predict(kind, T, **kw)  # the point estimate, with or without a band
+            if band is not None:
                 base, unit = name.rsplit(" [", 1)
-                columns[name], columns[f"{base} lower [{unit}"], columns[f"{base} upper [{unit}"] = res
+                _, columns[f"{base} lower [{unit}"], columns[f"{base} upper [{unit}"] = \
+                    self.predict(kind, T, band=band, **kw)
         lo, hi = self.temperature_range
         columns["extrapolated"] = (T < lo) | (T > hi)
         return pd.DataFrame(columns)

@@ -6,26 +6,37 @@ import json
 import numpy as np
 
 from ..cli_checks import parse_mole_fractions, parse_temperatures
-from ..errors import FitkinError
 from ..fitted import load_parameters
 from ..io.atomic import check_can_write, write_text_atomic
 from ..mixture import GasPair
 from ..units import parse_quantity
 
-__all__ = ["parse_temperatures", "prediction_table", "run_predict"]
+__all__ = ["parse_temperatures", "prediction_table", "band_note", "run_predict"]
 
 
-def _with_band(cols, header, values, band):
+def _with_band(cols, header, point, band, limits):
+    """The point estimate under ``header``; with a band, its lower and upper limits beside it."""
+    cols.append((header, point))
     if band is None:
-        cols.append((header, values))
         return
-    med, lo, hi = values
+    _, lo, hi = limits
     name, unit = header.rsplit(" [", 1)
-    cols += [(header, med), (f"{name} lower {band:g} [{unit}", lo), (f"{name} upper {band:g} [{unit}", hi)]
+    cols += [(f"{name} lower {band:g} [{unit}", lo), (f"{name} upper {band:g} [{unit}", hi)]
+
+
+def band_note(band: float, source: str) -> str:
+    """What the columns of a table with a band hold (printed in its header and JSON)."""
+    return (f"bands from {source}: each property column is the prediction of the fitted parameters, and its "
+            f"'lower {band:g}' and 'upper {band:g}' columns bound the central {100 * band:g} % of the "
+            "predictions of parameter draws")
 
 
 def prediction_table(gas, T, pressure, band=None, pair=None, x1=None):
     """Columns of predictions: list of (header with unit, values) in display units.
+
+    Each property column is the prediction of the fitted parameters (the point estimate);
+    with ``band`` the limits of the central band of probability ``band`` follow it as
+    ``NAME lower P [unit]`` and ``NAME upper P [unit]`` (see :func:`band_note`).
 
     ``pair`` (a :class:`fitkin.mixture.GasPair` with this gas first) adds the binary
     diffusion coefficient and, for each mole fraction in ``x1``, the mixture viscosity.
@@ -40,8 +51,9 @@ def prediction_table(gas, T, pressure, band=None, pair=None, x1=None):
             continue  # a polyatomic gas fitted without internal-energy model: said in the comment line
         if kind == "second_virial" and not gas.has_virial_model:
             continue  # polar gas: no Stockmayer B
-        res = gas.predict(kind, T, band=band, **kw)
-        _with_band(cols, header, tuple(r * scale for r in res) if band is not None else res * scale, band)
+        point = gas.predict(kind, T, **kw) * scale
+        limits = tuple(r * scale for r in gas.predict(kind, T, band=band, **kw)) if band is not None else None
+        _with_band(cols, header, point, band, limits)
     if pair is not None:
         cols.append((f"binary diffusion with {pair.names[1]} at {pressure:g} Pa [cm^2/s]",
                      pair.binary_diffusion(T, pressure) * 1e4))
@@ -56,13 +68,11 @@ def prediction_table(gas, T, pressure, band=None, pair=None, x1=None):
 
 def _pair(args, gas):
     if not args.with_gas:
-        if args.x1:
-            raise FitkinError("--x1 gives mole fractions of a mixture: name the second gas with --with OTHER.json")
-        return None, None
+        return None, None  # mixture options without --with are refused in fitkin.cli_checks
     sigma12 = parse_quantity(args.sigma12, "m", name="--sigma12", default_unit="angstrom") if args.sigma12 else None
     eps12 = parse_quantity(args.epsilon12, "K", name="--epsilon12", default_unit="K") if args.epsilon12 else None
-    pair = GasPair(gas, load_parameters(args.with_gas), sigma12=sigma12, epsilon12_over_k=eps12, k12=0.0 if args.k12 is None else args.k12,
-                   shape=args.pair_shape)
+    pair = GasPair(gas, load_parameters(args.with_gas), sigma12=sigma12, epsilon12_over_k=eps12,
+                   k12=0.0 if args.k12 is None else args.k12, shape=args.pair_shape)
     return pair, (parse_mole_fractions(args.x1) if args.x1 else None)
 
 
@@ -76,12 +86,17 @@ def run_predict(args, out) -> int:
     cols = prediction_table(gas, T, p, band=args.band, pair=pair, x1=x1)
     notes = []
     if args.band is not None:
-        notes.append(f"bands from {gas.band_source}")
+        notes.append(band_note(args.band, gas.band_source))
     if not gas.has_conductivity_model:
         notes.append("no conductivity: polyatomic gas fitted without an internal-energy model")
     if args.format == "json":
         doc = {"source": str(args.parameters), "gas": gas.gas.name, "notes": notes,
                "columns": {h: v.tolist() for h, v in cols}}
+        if args.band is not None:
+            doc["band"] = {"probability": args.band, "draws_from": gas.band_source,
+                           "property_columns": "prediction of the fitted parameters (point estimate)",
+                           "lower_upper_columns": f"quantiles {(1 - args.band) / 2:g} and {(1 + args.band) / 2:g} "
+                                                  "of the predictions of parameter draws"}
         if pair is not None:
             doc["mixture"] = pair.describe()
         text = json.dumps(doc, indent=2, ensure_ascii=False, default=str) + "\n"
