@@ -318,16 +318,21 @@ for t, m, lo, hi in zip(T, median, lower, upper):
     _md(r"""
 ## The same on the command line
 
+In the working folder printed at the top (which already holds this notebook's `fit-xenon/`,
+so the command line writes to folders of its own):
+
 ```
+cd WORKING-FOLDER
 fitkin check xenon_viscosity.csv xenon_conductivity.xlsx
 fitkin fit xenon_viscosity.csv xenon_conductivity.xlsx --formula Xe --potential lj,mie --out compare-xenon
-fitkin fit xenon_viscosity.csv xenon_conductivity.xlsx --formula Xe --sample --seed 2026 --out fit-xenon
-fitkin report fit-xenon/parameters.json --out report-again
-fitkin predict fit-xenon/parameters.json --temperatures 250:1000:50 --band 0.95
+fitkin fit xenon_viscosity.csv xenon_conductivity.xlsx --formula Xe --sample --seed 2026 --out fit-xenon-cli
+fitkin report fit-xenon-cli/parameters.json --out report-again
+fitkin predict fit-xenon-cli/parameters.json --temperatures 250:1000:50 --band 0.95
 ```
 
 `fitkin fit` writes `parameters.json`, `report.html` and `figures/` (and `samples.npz` with
-`--sample`) into the `--out` folder.
+`--sample`) into the `--out` folder, and refuses a folder that already holds a fit unless
+`--force` is given.
 
 `docs/user-guide.md` describes every command and option.
 """),
