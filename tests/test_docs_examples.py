@@ -56,7 +56,7 @@ NOT_RUN = re.compile(r"^<!--\s*not-run:\s*(.+?)\s*-->$")
 KNOWN_FAILURES: dict[tuple[str, str], str] = {
     ("docs/user-guide.md", '--molar-mass "83.798 g/mol"'):
         "issue 9 §3: a gas given only by --molar-mass is built as Gas(name, molar_mass) in "
-        "fitkin/commands/fit.py (_gas) with no way to say it is monatomic, so "
+        "fitkin/commands/fit.py (gas_from_args) with no way to say it is monatomic, so "
         "fitkin.inference.model.is_monatomic is False and a conductivity fit exits 2 "
         "('carries internal (rotational, vibrational) energy')",
 }
