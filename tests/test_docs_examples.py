@@ -53,13 +53,7 @@ NOT_RUN = re.compile(r"^<!--\s*not-run:\s*(.+?)\s*-->$")
 
 # Blocks that fail today because of a known bug in library code; each entry names the bug.
 # strict=True: when the bug is fixed the test reports XPASS as a failure, so the entry goes.
-KNOWN_FAILURES: dict[tuple[str, str], str] = {
-    ("docs/user-guide.md", '--molar-mass "83.798 g/mol"'):
-        "issue 9 §3: a gas given only by --molar-mass is built as Gas(name, molar_mass) in "
-        "fitkin/commands/fit.py (gas_from_args) with no way to say it is monatomic, so "
-        "fitkin.inference.model.is_monatomic is False and a conductivity fit exits 2 "
-        "('carries internal (rotational, vibrational) energy')",
-}
+KNOWN_FAILURES: dict[tuple[str, str], str] = {}
 
 
 @dataclass(frozen=True)
