@@ -18,6 +18,9 @@ from .io.atomic import forget_written_paths, written_paths
 __all__ = ["main", "build_parser"]
 
 EXIT_OK, EXIT_USER, EXIT_INTERNAL = 0, 2, 3
+#: Standard output closed by its reader (``fitkin ... | head -1``): what the shell reports for a
+#: program stopped by SIGPIPE (128 + 13), as for any other filter.
+EXIT_BROKEN_PIPE = 141
 
 _EPILOG_CHECK = """examples:
   fitkin check viscosity.csv
@@ -192,7 +195,12 @@ def main(argv: list[str] | None = None) -> int:
         with warnings.catch_warnings():
             warnings.simplefilter("ignore", RuntimeWarning)
             warnings.showwarning = _one_line_warning
-            return handler(args, out=sys.stdout)
+            code = handler(args, out=sys.stdout)
+            sys.stdout.flush()  # a closed pipe shows here, not in the interpreter's last flush
+            return code
+    except BrokenPipeError:  # the reader of standard output stopped reading: not an error of anyone's
+        _silence_stdout()
+        return EXIT_BROKEN_PIPE
     except InputProblems as exc:
         n = len(exc.problems)
         print(f"fitkin {args.command}: {n} problem{'s' if n != 1 else ''} found in the input:", file=sys.stderr)
@@ -213,6 +221,17 @@ def main(argv: list[str] | None = None) -> int:
               "This is a fault in fitkin, not in your input. Run again with FITKIN_DEBUG=1 for details "
               "and report it.", file=sys.stderr)
         return EXIT_INTERNAL
+
+
+def _silence_stdout() -> None:
+    """Point standard output at the null device, so that the interpreter's last flush of what is
+    still buffered does not fail again on the closed pipe (the Python documentation's recipe for
+    SIGPIPE, 'Note on SIGPIPE' in the signal module)."""
+    try:
+        devnull = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(devnull, sys.stdout.fileno())
+    except (OSError, ValueError, AttributeError):  # a stdout without a file descriptor (tests, notebooks)
+        pass
 
 
 def _one_line_warning(message, category, filename, lineno, file=None, line=None):
