@@ -7,7 +7,16 @@ from __future__ import annotations
 
 import numpy as np
 
-__all__ = ["decimals_for", "format_estimate", "format_interval"]
+__all__ = ["count_of", "decimals_for", "format_estimate", "format_interval"]
+
+
+def count_of(n: int, noun: str, plural: str | None = None) -> str:
+    """'1 point', '2 points' (``plural`` for nouns that do not just add an s).
+
+    >>> count_of(1, "point"), count_of(0, "point"), count_of(3, "draw")
+    ('1 point', '0 points', '3 draws')
+    """
+    return f"{n} {noun if n == 1 else (plural or noun + 's')}"
 
 
 def decimals_for(scale: float, figures: int = 2) -> int:

@@ -239,3 +239,15 @@ def test_unwritable_cache_is_one_warning_line_and_the_fit_succeeds(tmp_path, mon
     assert len(lines) == 1 and lines[0].startswith("fitkin: warning: the collision-table cache")
     assert "rebuilt on every run" in lines[0]
     assert (tmp_path / "fit" / "parameters.json").is_file()
+
+
+# --- counts in the singular everywhere --------------------------------------------------------
+def test_one_of_a_thing_is_said_in_the_singular():
+    from fitkin.potentials import Tabulated
+    from fitkin.report.narrative import _shown
+    with pytest.raises(FitkinError) as info:
+        Tabulated([3.0], [100.0])
+    assert "1 point," in str(info.value) and "1 points" not in str(info.value)
+    assert _shown(1, 1, "point") == "the one point"
+    assert _shown(8, 8, "point") == "all 8 points"
+    assert _shown(12, 40, "measured temperature").startswith("12 of 40 measured temperatures, evenly")

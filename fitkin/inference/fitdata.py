@@ -19,6 +19,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..errors import FitError
+from ..formatting import count_of
 from ..measurements import PROPERTY_KINDS, SIGNED_KINDS
 
 __all__ = ["FitData"]
@@ -150,7 +151,7 @@ def _complete_uncertainties(parts) -> tuple[np.ndarray, list[str]]:
                 notes.append(f"{p.file}: {int(missing.sum())} {name} point{'s' if many else ''} "
                              f"(row{'s' if many else ''} {where}) state{'' if many else 's'} no uncertainty; assumed "
                              f"u = {100 * rel:.3g} % of the value, the median relative uncertainty stated for the "
-                             f"other {stated.size} {name} points; add a u({name}) column to use your own")
+                             f"other {count_of(stated.size, name + ' point')}; add a u({name}) column to use your own")
     return np.concatenate(unc), notes
 
 

@@ -26,6 +26,7 @@ from dataclasses import replace
 import numpy as np
 
 from ..errors import FitError
+from ..formatting import count_of
 from ..species import Gas
 from ..theory.internal import InternalEnergyTransport
 from .fitdata import FitData
@@ -100,8 +101,9 @@ def _stage_internal(data, gas, potential, free_shape, internal, first: FitResult
     shape = {n: first.value(n) for n in free_shape}
     fixed = {"sigma": first.value("sigma"), "epsilon_over_k": first.value("epsilon_over_k")}
     if len(cond) <= len(internal.parameter_names):
-        raise FitError(f"{len(cond)} conductivity points cannot determine {len(internal.parameter_names)} "
-                       "internal-energy parameters; give more points or fix some (--fit-internal)")
+        raise FitError(f"{count_of(len(cond), 'conductivity point')} cannot determine "
+                       f"{count_of(len(internal.parameter_names), 'internal-energy parameter')}; give more points or "
+                       "fix some (--fit-internal)")
     return fit_least_squares(cond, gas, with_shape(potential, **shape), order=kw["order"],
                              collision=kw["collision"], polar=kw["polar"], internal=internal, fixed=fixed,
                              start={**fixed})

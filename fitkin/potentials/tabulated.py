@@ -11,6 +11,7 @@ from scipy.interpolate import CubicSpline
 from scipy.optimize import brentq, minimize_scalar
 
 from fitkin.errors import InputError, PotentialError, UnitError
+from fitkin.formatting import count_of
 from fitkin.potentials.base import Potential
 from fitkin.units import parse_unit, to_si, ureg
 
@@ -106,7 +107,7 @@ class Tabulated(Potential):
             raise PotentialError(f"tabulated potential{where}: r has {r.size} values but U has {u.size}")
         if r.size < MIN_TABLE_POINTS:
             raise PotentialError(
-                f"tabulated potential{where}: {r.size} points, at least {MIN_TABLE_POINTS} are "
+                f"tabulated potential{where}: {count_of(r.size, 'point')}, at least {MIN_TABLE_POINTS} are "
                 "needed (some on the repulsive wall, around the well and on the attractive tail)")
         if not (np.all(np.isfinite(r)) and np.all(np.isfinite(u))):
             raise PotentialError(f"tabulated potential{where}: non-finite value in the table")

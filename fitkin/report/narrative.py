@@ -7,6 +7,7 @@ from html import escape
 import numpy as np
 
 from .. import __version__
+from ..formatting import count_of
 from ..fitted import BAND_DRAWS, FittedGas
 from .bands import POSTERIOR_BAND_DRAWS, REPORT_SEED
 from .comparison import EUCKEN_CHAPMAN_ENSKOG, EUCKEN_ELEMENTARY
@@ -25,10 +26,11 @@ def _thin(n: int) -> np.ndarray:
 
 
 def _shown(shown: int, total: int, what: str) -> str:
-    """'all 8 points' or '12 of 40 points, evenly spaced in temperature, both ends kept'."""
+    """'all 8 points', 'the one point' or '12 of 40 points, evenly spaced in temperature, both ends
+    kept' (``what`` in the singular)."""
     if shown >= total:
-        return f"all {total} {what}"
-    return f"{shown} of {total} {what}, evenly spaced in temperature, both ends kept"
+        return f"the one {what}" if total == 1 else f"all {count_of(total, what)}"
+    return f"{shown} of {count_of(total, what)}, evenly spaced in temperature, both ends kept"
 
 
 def elementary_section(ctx: ReportContext) -> Section | None:
@@ -46,7 +48,7 @@ def elementary_section(ctx: ReportContext) -> Section | None:
     rows = [[f"{sc.temperature[i]:.1f}", "—" if hs else f"{sc.reduced_temperature[i]:.3f}", f"{sc.diameter[i] * 1e10:.3f}",
              f"{sc.mean_speed[i]:.1f}", sci(sc.number_density[i]), f"{sc.mean_free_path[i] * 1e9:.1f}",
              f"{sc.mean_free_path[i] / sc.diameter[i]:.0f}"] for i in idx]
-    parts.append(f"<h3>Molecular scales ({escape(_shown(len(idx), sc.temperature.size, 'measured temperatures'))})</h3>")
+    parts.append(f"<h3>Molecular scales ({escape(_shown(len(idx), sc.temperature.size, 'measured temperature'))})</h3>")
     parts.append(table(["T [K]", "T*", "d [Å]", "v̄ = √(8kT/πm) [m/s]", "n [1/m³]", "λ [nm]", "λ/d"], rows,
                        text_columns=()))
     names = {"viscosity": ("μ", "µPa·s", 1e6, "⅓ρv̄λ"), "conductivity": ("k", "mW/(m·K)", 1e3, "⅓C_v v̄λ")}
@@ -58,7 +60,7 @@ def elementary_section(ctx: ReportContext) -> Section | None:
                  f"{c.fitted[i] * scale:#.4g}", f"{c.elementary[i] * scale:#.4g}", f"{c.measured_over_elementary[i]:.3f}",
                  f"{c.fitted_over_elementary[i]:.3f}"] for i in sel]
         parts.append(f"<h3>{escape(kind.capitalize())}: {sym} = {formula} against data and fit "
-                     f"({escape(_shown(sel.size, order.size, 'points'))})</h3>")
+                     f"({escape(_shown(sel.size, order.size, 'point'))})</h3>")
         parts.append(table(["T [K]", "source", f"measured [{unit}]", f"Chapman–Enskog fit [{unit}]",
                             f"{formula} [{unit}]", "measured / elementary", "fit / elementary"], rows,
                            text_columns=(1,)))
