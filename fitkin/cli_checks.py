@@ -80,8 +80,13 @@ def _molar_mass_unit_hint(text: str) -> None:
     if not _BARE_NUMBER.match(str(text)):
         return
     value = float(str(text).replace("−", "-"))
-    unit = "kg/mol" if 0 < value < 1 else "g/mol"
-    raise UnitError(f"--molar-mass: '{text}' has no unit", hint=f"write it with a unit, e.g. '{text} {unit}'")
+    if 0 < value < 1:
+        example = f"'{text.strip()} kg/mol'"
+    elif value >= 1000:  # no gas is a kilogram a mole: most likely mg/mol
+        example = f"'{text.strip()} mg/mol' if that is {value / 1000:g} g/mol"
+    else:
+        example = f"'{text.strip()} g/mol'"
+    raise UnitError(f"--molar-mass: '{text}' has no unit", hint=f"write it with a unit, e.g. {example}")
 
 
 def _check_out(args, folder: bool) -> None:

@@ -190,7 +190,8 @@ def test_library_errors_carry_a_command_line_spelling():
     assert "order=1" in str(info.value) and "--order 1" in info.value.for_command_line()
 
 
-@pytest.mark.parametrize("value, unit", [("39.948", "g/mol"), ("0.039948", "kg/mol"), ("146", "g/mol")])
+@pytest.mark.parametrize("value, unit", [("39.948", "g/mol"), ("0.039948", "kg/mol"), ("146", "g/mol"),
+                                         ("39948", "mg/mol")])
 def test_molar_mass_hint_suits_the_number(lab, tmp_path, capsys, value, unit):
     expect_user_error(capsys, "fit", lab / "visc.csv", "--molar-mass", value, "--out", tmp_path / "o",
                       fragments=[f"'{value} {unit}'"])
