@@ -215,6 +215,22 @@ def test_real_hydrogen_table_is_accepted():
     assert float(table.vibrational_cv(1000.0)) == pytest.approx(cp[-1] - 3.5 * R, rel=1e-9)
 
 
+def test_hydrogen_table_from_a_second_reference_library_is_accepted(tmp_path):
+    # Source: chemicals' TRC ideal-gas c_p coefficients of equilibrium hydrogen (CAS 1333-74-0):
+    # 28.96 J/(mol K) at 93 K, just below (7/2) R = 29.10 J/(mol K), and 26.58 J/(mol K) at 150 K.
+    trc = pytest.importorskip("chemicals.heat_capacity")
+    coefficients = trc.TRC_gas_data.loc["1333-74-0"].values[3:11]
+    T = (93.0, 150.0, 200.0, 300.0, 500.0, 1000.0)
+    cp = tuple(float(trc.TRCCp(t, *coefficients)) for t in T)
+    assert cp[0] == pytest.approx(28.96, abs=0.01) and cp[0] < 3.5 * R
+    table = TabulatedHeatCapacity(T, cp, geometry="linear", origin="h2.toml [heat_capacity]")
+    assert float(table.cp(93.0)) == pytest.approx(cp[0], rel=1e-12)
+    path = tmp_path / "h2.toml"
+    path.write_text('name = "hydrogen"\nformula = "H2"\n\n[heat_capacity]\n'
+                    f'temperature = {list(T)}\ncp = {list(cp)}\nunit = "J/(mol K)"\n', encoding="utf-8")
+    assert float(Gas.from_file(path).heat_capacity.cp(93.0)) == pytest.approx(cp[0], rel=1e-12)
+
+
 def test_below_the_translational_floor_is_a_unit_slip():
     # hydrogen's c_p⁰ in cal/(mol K) given as J/(mol K): 6.9 < (5/2) R at every temperature
     cal = tuple(_reference_cp("Hydrogen", HYDROGEN_T) / 4.184)
