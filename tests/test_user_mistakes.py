@@ -325,6 +325,8 @@ def test_samples_without_hash_are_refused(lab, tmp_path, capsys):
     (["sigma", "epsilon_over_k"], np.array([[3.4, 125.0]]), "1 draw(s)"),
     (["sigma", "epsilon_over_k"], np.full((50, 2), [3.4, 125.0]), "is the same value"),
     (["sigma", "epsilon_over_k"], np.ones((50, 1)), "one column per parameter"),
+    # one column that names itself: the band would leave out ε/k's uncertainty
+    (["sigma"], np.linspace(3.38, 3.42, 50)[:, None], "says sigma, epsilon_over_k were sampled"),
 ])
 def test_samples_that_cannot_give_a_band(lab, tmp_path, capsys, names, samples, fragment):
     def edit(record):

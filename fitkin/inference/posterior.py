@@ -215,13 +215,18 @@ def save_samples(posterior: Posterior, path, force: bool = False, relative_to=No
 MIN_DRAWS = 20
 
 
-def load_samples(reference: dict, base_dir) -> tuple[list[str], np.ndarray]:
+def load_samples(reference: dict, base_dir, sampled=None) -> tuple[list[str], np.ndarray]:
     """(names, samples (draws, dim)) from a record's ``samples`` reference, checking its SHA-256.
+
+    ``sampled`` : the names of the parameters the record says were sampled (the keys of its
+    ``posterior.parameters`` summary); the file must hold exactly these, as must the names the
+    reference lists, so that a file with a column missing cannot give a band that leaves out
+    a parameter's uncertainty.
 
     Refused with :class:`ParameterFileError`: a reference without a SHA-256 (the file could not
     be checked), a file that does not match it, a damaged file, and draws that cannot give a
-    band (not one column per name, fewer than :data:`MIN_DRAWS` draws, non-finite values, or a
-    parameter without any spread).
+    band (not one column per name, other parameters than the record's, fewer than
+    :data:`MIN_DRAWS` draws, non-finite values, or a parameter without any spread).
     """
     if not reference or not reference.get("file"):
         raise ParameterFileError("this parameter file references no posterior samples")
@@ -243,16 +248,21 @@ def load_samples(reference: dict, base_dir) -> tuple[list[str], np.ndarray]:
     except (ValueError, KeyError, OSError, EOFError, zipfile.BadZipFile, zlib.error) as exc:
         raise ParameterFileError(f"{p} is not a readable fitkin samples file "
                                  f"({type(exc).__name__}: {exc})") from None
-    _check_draws(p, names, samples, reference.get("names"))
+    _check_draws(p, names, samples, reference.get("names"), "posterior.samples.names")
+    if sampled:
+        _check_draws(p, names, samples, list(sampled), "posterior.parameters")
     return names, samples
 
 
-def _check_draws(p: Path, names: list[str], samples: np.ndarray, recorded) -> None:
+def _check_draws(p: Path, names: list[str], samples: np.ndarray, recorded, entry: str) -> None:
     if samples.ndim != 2 or samples.shape[1] != len(names) or not names:
         raise ParameterFileError(f"{p}: the samples hold an array of shape {samples.shape} for the parameters "
                                  f"{names}; expected one column per parameter")
     if recorded is not None and list(recorded) != names:
-        raise ParameterFileError(f"{p}: the samples are of {names}, the parameter file says {list(recorded)}")
+        raise ParameterFileError(f"{p}: the samples are of {', '.join(names)}, but the parameter file ({entry}) "
+                                 f"says {', '.join(map(str, recorded))} were sampled; a band from these draws would "
+                                 "not be the fit's (sample again with fitkin fit --sample, or remove "
+                                 "posterior.samples.file to use the covariance)")
     if len(samples) < MIN_DRAWS:
         raise ParameterFileError(f"{p} holds {len(samples)} draw(s); a band needs at least {MIN_DRAWS} "
                                  "(sample again with fitkin fit --sample)")
@@ -270,7 +280,7 @@ def posterior_draws(record: dict, base_dir, max_draws: int | None = None, seed: 
     Values of parameters not sampled are taken from ``record["parameters"]``.
     """
     post = record.get("posterior") or {}
-    names, samples = load_samples(post.get("samples") or {}, base_dir)
+    names, samples = load_samples(post.get("samples") or {}, base_dir, sampled=list(post.get("parameters") or ()))
     base = {k: v.get("value") for k, v in (record.get("parameters") or {}).items()}
     base.update(post.get("fixed") or {})
     if max_draws is not None and len(samples) > max_draws:

@@ -82,7 +82,7 @@ def posterior_samples(record: dict, record_path=None) -> dict[str, np.ndarray] |
         return None
     base = Path(record_path).parent if record_path is not None else Path(".")
     try:
-        names, samples = load_samples(ref, base)
+        names, samples = load_samples(ref, base, sampled=list(post.get("parameters") or ()))
     except ParameterFileError:
         return None
     samples = np.asarray(samples, dtype=float).reshape(len(samples), -1)
