@@ -45,6 +45,11 @@ _EPILOG_REPORT = """examples:
   fitkin report fit-argon/parameters.json
   fitkin report fit-argon/parameters.json --out /tmp/argon-report --force
 """
+_EPILOG_PLAN = """examples:
+  fitkin plan fit-argon/parameters.json --range 200:1000:5 --points 4 --uncertainty 0.3% --goal viscosity@1000K
+  fitkin plan fit-argon/parameters.json --range 250:700:10 --points 6 --uncertainty 0.3% --out plan-ar
+  fitkin plan --formula Ar --critical "Tc=150.7 K, Pc=4.86 MPa" --range 200:1000:10 --points 8 --uncertainty 0.5%
+"""
 _EPILOG_DEMO = """examples:
   fitkin demo                       (writes ./fitkin-demo/)
   fitkin demo --out /tmp/demo --force
@@ -61,6 +66,46 @@ def _add_table_options(p: argparse.ArgumentParser) -> None:
     p.add_argument("--pressure", dest="table_pressure", metavar="P",
                    help="pressure of every point of tables without a pressure column, e.g. '101.325 kPa' "
                         "(needed for self-diffusion data)")
+
+
+def _add_plan_parser(sub) -> None:
+    p = sub.add_parser("plan", help="choose the temperatures to measure next, with the uncertainty they will leave",
+                       epilog=_EPILOG_PLAN, formatter_class=argparse.RawDescriptionHelpFormatter)
+    p.add_argument("parameters", nargs="?", metavar="PARAMETERS.json",
+                   help="a saved fit (its posterior samples are used when they lie beside it); or give a gas below")
+    gas = p.add_mutually_exclusive_group()
+    gas.add_argument("--formula", help="before any measurement: chemical formula of the gas, e.g. Ar")
+    gas.add_argument("--molar-mass", metavar="M", help="before any measurement: molar mass, e.g. '39.948 g/mol'")
+    gas.add_argument("--gas", metavar="FILE", help="before any measurement: gas description file (TOML)")
+    p.add_argument("--name", help="name of the gas in outputs (default: the formula)")
+    p.add_argument("--monatomic", action="store_true", help="the gas given by --molar-mass is monatomic")
+    p.add_argument("--critical", metavar="CONSTANTS", help="corresponding-states prior, e.g. 'Tc=150.7 K, Pc=4.86 MPa'")
+    p.add_argument("--prior", action="append", default=[], metavar="NAME=KIND:ARGS",
+                   help="prior, e.g. sigma=gaussian:3.4,0.3 (as fit --prior)")
+    p.add_argument("--potential", metavar="NAME", help="potential shape of a plan from a prior (default lj; mie: n free)")
+    p.add_argument("--property", default="viscosity", metavar="KINDS",
+                   help="what can be measured, comma-separated: viscosity (default), conductivity, "
+                        "self_diffusion, second_virial")
+    p.add_argument("--range", required=True, metavar="START:STOP:STEP",
+                   help="candidate temperatures, kelvin or with a unit: 250:1100:5, '-20:800:5 degC'")
+    p.add_argument("--points", type=int, metavar="N", help="number of new measurements to plan")
+    p.add_argument("--uncertainty", action="append", default=[], metavar="U",
+                   help="standard uncertainty of a new measurement: 0.3%% (relative), '0.05 uPa s' (absolute), "
+                        "or per property, e.g. conductivity=1%%")
+    p.add_argument("--goal", action="append", metavar="GOAL",
+                   help="parameters (default: D-optimal), PROPERTY@T such as viscosity@1500K (several allowed), "
+                        "or discriminate:lj,mie")
+    p.add_argument("--data", action="append", default=[], metavar="FILE",
+                   help="tables of measurements made since (or besides) what is known; the plan adds to them")
+    p.add_argument("--unit", action="append", default=[], metavar="QUANTITY=UNIT",
+                   help="unit of a --data column whose header gives none")
+    p.add_argument("--pressure", default="101325 Pa", help="pressure of self-diffusion points (default 101325 Pa)")
+    p.add_argument("--draws", type=int, default=100, metavar="D",
+                   help="parameter draws the criterion is averaged over (default 100)")
+    p.add_argument("--seed", type=int, default=0, help="seed of the draws and of --verify (default 0)")
+    p.add_argument("--verify", type=int, metavar="R", help="check by simulating R data sets per design and fitting them")
+    p.add_argument("--out", metavar="DIR", help="write DIR/plan.csv and DIR/plan.json")
+    p.add_argument("--force", action="store_true", help="replace existing outputs in DIR")
 
 
 def build_parser() -> argparse.ArgumentParser:
@@ -162,6 +207,8 @@ def build_parser() -> argparse.ArgumentParser:
     p.add_argument("--out", metavar="DIR", help="folder for report.html and figures/ (default: beside the file)")
     p.add_argument("--force", action="store_true", help="replace an existing report")
     p.add_argument("--pressure", default="101325 Pa", help="pressure for the mean free path (default 101325 Pa)")
+
+    _add_plan_parser(sub)
 
     p = sub.add_parser("demo", help="make the synthetic sample data and fit it, end to end",
                        epilog=_EPILOG_DEMO, formatter_class=argparse.RawDescriptionHelpFormatter)

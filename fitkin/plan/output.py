@@ -1,0 +1,71 @@
+"""The files of a plan: plan.csv (a fitkin input table with blank property columns) and
+plan.json (inputs, criterion, expected uncertainties, seed).
+
+Every file is written atomically and an existing one is replaced only with ``force``; all
+paths are checked before anything is written, so a refusal leaves nothing half done.
+"""
+from __future__ import annotations
+
+import json
+from pathlib import Path
+
+from ..io.atomic import check_can_write, write_text_atomic
+from ..measurements import PRESSURE_KINDS
+from .result import PlanResult
+
+__all__ = ["plan_csv_text", "plan_json_text", "write_plan", "PLAN_CSV", "PLAN_JSON", "CSV_UNITS"]
+
+PLAN_CSV, PLAN_JSON = "plan.csv", "plan.json"
+#: Unit of each property column of plan.csv (header unit, factor from SI to it).
+CSV_UNITS = {"viscosity": ("uPa s", 1e6), "conductivity": ("mW/(m K)", 1e3), "self_diffusion": ("cm^2/s", 1e4),
+             "second_virial": ("cm^3/mol", 1e6)}
+
+
+def _u_cell(result: PlanResult, kind: str) -> tuple[str, str]:
+    """(header, cell) of the u(kind) column: per cent for a relative uncertainty."""
+    text = result.inputs["uncertainty"][kind]
+    unit, factor = CSV_UNITS[kind]
+    if text.endswith("%"):
+        return f"u({kind}) [%]", text[:-1].strip()
+    return f"u({kind}) [{unit}]", f"{float(result.inputs['uncertainty_SI'][kind]) * factor:.6g}"
+
+
+def plan_csv_text(result: PlanResult) -> str:
+    """plan.csv: one row per recommended point (replicates repeat), the property columns blank
+    for the lab to fill in, u(...) filled with the planned uncertainty. Once the values are in,
+    ``fitkin fit plan.csv ...`` reads it like any measured table."""
+    kinds = list(result.inputs["properties"])
+    header = ["T [K]"]
+    u_cells = {}
+    for kind in kinds:
+        unit, _ = CSV_UNITS[kind]
+        u_head, u_cells[kind] = _u_cell(result, kind)
+        header += [f"{kind} [{unit}]", u_head]
+    pressure = any(k in PRESSURE_KINDS for k in kinds)
+    if pressure:
+        header.append("p [kPa]")
+    lines = [f"# fitkin plan for {result.knowledge.gas.name} ({result.knowledge.label}); goal "
+             f"{', '.join(result.goals)}; fill in the measured values, then fit this file with the others",
+             ",".join(header)]
+    for kind, T in result.points:
+        row = [f"{T:.6g}"]
+        for k in kinds:
+            row += ["", u_cells[k]] if k == kind else ["", ""]
+        if pressure:
+            row.append(f"{result.inputs['pressure_Pa'] / 1e3:.6g}")
+        lines.append(",".join(row))
+    return "\n".join(lines) + "\n"
+
+
+def plan_json_text(result: PlanResult) -> str:
+    return json.dumps(result.to_record(), indent=2, ensure_ascii=False) + "\n"
+
+
+def write_plan(result: PlanResult, out_dir, *, force: bool = False) -> dict:
+    """Write plan.csv and plan.json into ``out_dir``; return {"csv": path, "json": path}."""
+    out_dir = Path(out_dir)
+    targets = {"csv": out_dir / PLAN_CSV, "json": out_dir / PLAN_JSON}
+    for p in targets.values():
+        check_can_write(p, force)
+    return {"csv": write_text_atomic(targets["csv"], plan_csv_text(result), force=force),
+            "json": write_text_atomic(targets["json"], plan_json_text(result), force=force)}

@@ -1,0 +1,238 @@
+"""``plan_measurements``: which temperatures to measure next, and how much they will help.
+
+>>> from fitkin.plan import plan_measurements                                   # doctest: +SKIP
+>>> plan = plan_measurements("fit-ar/parameters.json", grid="200:1000:5", points=4,
+...                          uncertainty="0.3%", goals=["viscosity@1000K"])      # doctest: +SKIP
+>>> plan.temperatures, plan.row("viscosity@1000K").plan                          # doctest: +SKIP
+"""
+from __future__ import annotations
+
+import numpy as np
+
+from ..errors import OutOfRangeError, UsageError
+from ..fitted import FittedGas
+from ..inference.fitdata import FitData
+from ..inference.model import is_monatomic
+from ..measurements import PROPERTY_KINDS
+from .criteria import DOptimal, GoalVariance
+from .design import design_precision, select_design
+from .discriminate import discrimination_criterion
+from .fisher import Predictor, information_vectors, relative_or_absolute
+from .fisher import points as prediction_points
+from .knowledge import DEFAULT_DRAWS, Knowledge, knowledge_from_fit
+from .result import PlanResult, UncertaintyRow
+from .specs import CandidateGrid, Goal, Uncertainty, kind_name, parse_goal, parse_range, parse_uncertainty
+
+__all__ = ["plan_measurements", "MAX_POINTS", "MIN_DRAW_FRACTION"]
+
+#: Most new points one plan chooses.
+MAX_POINTS = 500
+#: A plan needs at least this fraction of the draws to be evaluable over the whole range.
+MIN_DRAW_FRACTION = 0.5
+
+
+def _knowledge(known, draws: int, seed: int) -> Knowledge:
+    if isinstance(known, Knowledge):
+        return known
+    if isinstance(known, FittedGas) or isinstance(known, (str, bytes)) or hasattr(known, "__fspath__"):
+        return knowledge_from_fit(known, draws=draws, seed=seed)
+    raise UsageError(f"plan_measurements needs a saved fit (path or FittedGas) or a Knowledge, got "
+                     f"{type(known).__name__}")
+
+
+def _uncertainties(uncertainty, kinds) -> dict:
+    items = uncertainty if isinstance(uncertainty, (list, tuple)) else [uncertainty]
+    out: dict = {}
+    for item in items:
+        if isinstance(item, Uncertainty):
+            out[item.kind] = item
+        elif isinstance(item, dict):
+            out.update(item)
+        elif item is not None:
+            out.update(parse_uncertainty(item, kinds))
+    missing = [k for k in kinds if k not in out]
+    if missing:
+        raise UsageError(f"no measurement uncertainty given for {', '.join(missing)}: add --uncertainty, e.g. "
+                         f"--uncertainty 0.3% or --uncertainty {missing[0]}=0.3%")
+    return {k: out[k] for k in kinds}
+
+
+def _check_coverage(k: Knowledge, kinds, T) -> None:
+    """Clear messages when the temperatures leave the collision integrals or c_p⁰ behind."""
+    theta = k.theta(k.center)
+    tm = k.model.transport(theta)
+    lo, hi = tm.t_star_range
+    eps = float(theta["epsilon_over_k"])
+    t_lo, t_hi = float(np.min(T)), float(np.max(T))
+    if t_lo / eps < lo or t_hi / eps > hi:
+        raise OutOfRangeError(f"the planned temperatures {t_lo:g}–{t_hi:g} K are T* = {t_lo / eps:.3g}–"
+                              f"{t_hi / eps:.3g} at ε/k = {eps:.4g} K, outside the collision integrals of the "
+                              f"{k.label} potential (T* = {lo:g}–{hi:g}); plan within {lo * eps:.4g}–{hi * eps:.4g} K")
+    hc = k.gas.heat_capacity
+    if "conductivity" in kinds and hc is not None and k.model.internal is not None and not is_monatomic(k.gas):
+        hc.check_covers(np.asarray(T, dtype=float), what="the planned conductivity temperatures")
+    if "conductivity" in kinds and not is_monatomic(k.gas) and k.model.internal is None:
+        raise UsageError(f"this fit of '{k.gas.name}' has no internal-energy conductivity model, so it cannot predict "
+                         "the thermal conductivity of a polyatomic gas; plan viscosity, or describe the gas's heat "
+                         "capacity in a gas file (--gas FILE)")
+
+
+def _goals(goals) -> tuple:
+    items = [goals] if isinstance(goals, (str, Goal)) else list(goals or ["parameters"])
+    parsed = tuple(g if isinstance(g, Goal) else parse_goal(g) for g in items) or (Goal("parameters"),)
+    forms = {g.form for g in parsed}
+    if len(forms) > 1:
+        raise UsageError("--goal: give either 'parameters', property goals (e.g. viscosity@1500K) or one "
+                         "discriminate goal, not a mix (each asks for a different design)")
+    if "discriminate" in forms and len(parsed) > 1:
+        raise UsageError("--goal: give one discriminate goal (list every shape in it, e.g. discriminate:lj,mie,exp6)")
+    return parsed
+
+
+def _uniform(kinds, grid: CandidateGrid, n: int) -> tuple:
+    """n points spread as evenly as possible over the properties, each evenly over the range."""
+    per = [n // len(kinds) + (1 if i < n % len(kinds) else 0) for i in range(len(kinds))]
+    out = []
+    for kind, m in zip(kinds, per):
+        T = [0.5 * (grid.low + grid.high)] if m == 1 else np.linspace(grid.low, grid.high, m)
+        out += [(kind, float(t)) for t in T]
+    return tuple(out)
+
+
+def _existing_information(k: Knowledge, data: FitData | None, keep_draws, s) -> np.ndarray:
+    p = len(k.names)
+    if data is None:
+        return np.zeros((int(np.sum(keep_draws)), p, p))
+    if not data.weighted:
+        raise UsageError("the existing tables given to the plan must state the uncertainty of every point "
+                         "(a u(...) column): the plan weighs them against the new points")
+    pred = Predictor(k.model, k.names, k.fixed, data, scale=k.sd)
+    values, J = pred.jacobian(k.draws[keep_draws])
+    if not np.all(np.isfinite(J)):
+        raise OutOfRangeError("some existing data points lie outside what the model covers for some parameter draws")
+    a = J * s[None, None, :] / np.asarray(data.uncertainty, float)[None, :, None]
+    return np.einsum("dnp,dnq->dpq", a, a)
+
+
+def _rows(k, s, goal_values, goal_c, goals, precisions) -> tuple:
+    """UncertaintyRow of each parameter and goal from the per-draw precisions (scaled coords)."""
+    covs = {name: np.linalg.inv(P) for name, P in precisions.items()}
+    rows = []
+    for j, n in enumerate(k.names):
+        sd = {name: float(s[j] * np.sqrt(np.mean(C[:, j, j]))) for name, C in covs.items()}
+        rows.append(UncertaintyRow(n, "", float(k.center[j]), sd["now"], sd["plan"], sd["uniform"]))
+    for g, goal in enumerate(goals):
+        c = goal_c[:, g, :]
+        rel = {name: float(np.sqrt(np.mean(np.einsum("dp,dpq,dq->d", c, C, c)))) for name, C in covs.items()}
+        rows.append(UncertaintyRow(goal.label, "1", float(np.mean(goal_values[:, g])), rel["now"], rel["plan"],
+                                   rel["uniform"], goal=True))
+    return tuple(rows)
+
+
+def _curves(kinds, grid, values, a, u_fun, precisions) -> dict:
+    """Predictive standard uncertainty over the grid for each property, now/plan/uniform."""
+    covs = {name: np.linalg.inv(P) for name, P in precisions.items()}
+    m = len(grid.temperatures)
+    out = {}
+    for i, kind in enumerate(kinds):
+        sl = slice(i * m, (i + 1) * m)
+        u = u_fun(values)[:, sl]
+        g = a[:, sl, :] * u[:, :, None]            # scaled-coordinate gradients of the prediction
+        entry = {"T": grid.temperatures.tolist(), "value": np.mean(values[:, sl], axis=0).tolist()}
+        for name, C in covs.items():
+            entry[f"sd_{name}"] = np.sqrt(np.mean(np.einsum("dcp,dpq,dcq->dc", g, C, g), axis=0)).tolist()
+        out[kind] = entry
+    return out
+
+
+def plan_measurements(known, *, grid, points: int, properties=("viscosity",), uncertainty=None, goals=None,
+                      pressure: float = 101325.0, data: FitData | None = None, draws: int = DEFAULT_DRAWS,
+                      seed: int = 0) -> PlanResult:
+    """Choose ``points`` new measurements on ``grid`` that best serve ``goals``.
+
+    Parameters
+    ----------
+    known : a saved fit (PARAMETERS.json path or :class:`~fitkin.fitted.FittedGas`) or a
+        :class:`~fitkin.plan.knowledge.Knowledge` (e.g. :func:`~fitkin.plan.knowledge_from_prior`).
+    grid : candidate temperatures: "250:1100:5", "-20:800:5 degC" or a CandidateGrid.
+    points : number of new points (≥ 1; replicates allowed).
+    properties : property kinds that can be measured ("viscosity", "conductivity", ...).
+    uncertainty : the instrument's standard uncertainty: "0.3%", "0.05 uPa s",
+        "conductivity=1%", a list of such, or {kind: Uncertainty}.
+    goals : "parameters" (default, D-optimal), property goals such as "viscosity@1500K"
+        (several allowed) or "discriminate:lj,mie".
+    pressure : Pa, of self-diffusion points and goals.   data : existing measurements to
+        add to (their information joins the current knowledge).
+    draws, seed : parameter draws the criterion is averaged over, and their seed.
+    """
+    if isinstance(points, bool) or not isinstance(points, (int, np.integer)) or points < 1:
+        raise UsageError(f"--points must be a whole number of at least 1, got {points!r}")
+    if points > MAX_POINTS:
+        raise UsageError(f"--points {points}: at most {MAX_POINTS} new points in one plan")
+    if not (isinstance(draws, (int, np.integer)) and draws >= 2):
+        raise UsageError(f"draws must be a whole number of at least 2, got {draws!r}")
+    k = _knowledge(known, draws, seed)
+    grid = grid if isinstance(grid, CandidateGrid) else parse_range(grid)
+    props = [properties] if isinstance(properties, str) else list(properties)
+    kinds = tuple(dict.fromkeys(kind_name(p, "--property") for p in props if str(p).strip()))
+    if not kinds:
+        raise UsageError(f"--property: name at least one of {', '.join(PROPERTY_KINDS)}")
+    u_by_kind = _uncertainties(uncertainty, kinds)
+    goal_list = _goals(goals)
+    quantity_goals = [g for g in goal_list if g.form == "quantity"]
+    all_T = np.concatenate([grid.temperatures, [g.temperature for g in quantity_goals]])
+    _check_coverage(k, kinds + tuple(g.kind for g in quantity_goals), all_T)
+    m = len(grid.temperatures)
+    cand_kinds = np.repeat(np.array(kinds, dtype=object), m)
+    cand_T = np.tile(grid.temperatures, len(kinds))
+    uniform = _uniform(kinds, grid, points)
+    goal_points = quantity_goals or [Goal("quantity", kind=kinds[0], temperature=grid.low)]
+    pts = prediction_points(
+        np.concatenate([cand_kinds, [kd for kd, _ in uniform], [g.kind for g in goal_points]]),
+        np.concatenate([cand_T, [t for _, t in uniform], [g.temperature for g in goal_points]]), pressure)
+    values, J = Predictor(k.model, k.names, k.fixed, pts, scale=k.sd).jacobian(k.draws)
+    keep = np.all(np.isfinite(J), axis=(1, 2)) & np.all(np.isfinite(values), axis=1) & np.all(values != 0, axis=1)
+    if keep.sum() < max(2, MIN_DRAW_FRACTION * len(keep)):
+        raise OutOfRangeError(f"only {int(keep.sum())} of {len(keep)} parameter draws can be evaluated at every "
+                              f"planned temperature ({grid.low:g}–{grid.high:g} K) within the collision-integral "
+                              "tables; narrow --range, or improve the current fit first")
+    warnings = [] if keep.all() else [f"{int((~keep).sum())} of {len(keep)} parameter draws fall outside what the "
+                                      "model covers over the range and were left out of the averages"]
+    k = k.with_draws(keep)
+    values, J = values[keep], J[keep]
+    s = k.sd
+    Js = J * s[None, None, :]
+    nc, nu = len(cand_T), len(uniform)
+    u_fun = relative_or_absolute(pts.kind, u_by_kind)
+    a_all = information_vectors(values, Js, u_fun)
+    a_cand, a_uni = a_all[:, :nc], a_all[:, nc:nc + nu]
+    goal_values, goal_J = values[:, nc + nu:], Js[:, nc + nu:]
+    goal_c = goal_J / goal_values[:, :, None]
+    corr = k.covariance / np.outer(s, s)
+    prior = np.linalg.inv(corr)[None] + _existing_information(k, data, np.ones(len(k.draws), bool), s)
+    if goal_list[0].form == "parameters":
+        criterion = DOptimal()
+    elif goal_list[0].form == "quantity":
+        criterion = GoalVariance(goal_c)
+    else:
+        criterion = discrimination_criterion(k, goal_list[0], cand_kinds, cand_T, values[:, :nc], u_fun, pressure)
+    chosen, value = select_design(criterion, prior, a_cand, points)
+    plan_points = tuple((str(cand_kinds[i]), float(cand_T[i])) for i in chosen)
+    precisions = {"now": prior, "plan": design_precision(prior, a_cand, chosen),
+                  "uniform": design_precision(prior, a_uni, np.arange(nu))}
+    if isinstance(criterion, (DOptimal, GoalVariance)):
+        scores = {name: criterion.value(np.linalg.inv(P)) for name, P in precisions.items()}
+    else:
+        scores = {"plan": value}
+    rows = _rows(k, s, goal_values, goal_c, quantity_goals, precisions)
+    inputs = {"range": grid.text, "range_K": [grid.low, grid.high], "candidates": int(m), "points": int(points),
+              "properties": list(kinds), "uncertainty": {kd: u.describe() for kd, u in u_by_kind.items()},
+              "uncertainty_SI": {kd: u.absolute for kd, u in u_by_kind.items()},
+              "pressure_Pa": float(pressure), "draws_used": int(len(k.draws)), "seed": int(k.seed),
+              "existing_points": int(len(data)) if data is not None else 0}
+    return PlanResult(points=plan_points, uniform=uniform, rows=rows, criterion=criterion.name,
+                      goals=tuple(g.label for g in goal_list), values=scores,
+                      curves=_curves(kinds, grid, values[:, :nc], a_cand,
+                                                    relative_or_absolute(cand_kinds, u_by_kind), precisions), knowledge=k,
+                      inputs=inputs, warnings=tuple(warnings), uncertainty=u_by_kind)
+
