@@ -311,12 +311,6 @@ def test_output_comparison_sees_a_changed_number():
     assert not _matches(["a 1", "c 3"], ["a 1", "b", "c 3"])
 
 
-@pytest.mark.xfail(strict=True, reason=(
-    "issue 9 §9: fitkin/commands/predict.py (prediction_table) heads the D column "
-    "'self-diffusion at P Pa [cm^2/s]', which fitkin/io/quantities.py does not recognise (and the "
-    "table has no pressure column D would need), and fitkin/io/headers.py warns once per band "
-    "column ('NAME lower 0.95 [unit]', 'NAME upper 0.95 [unit]') and for 'extrapolated': reading "
-    "back a --band table drops D and gives 10 warnings"))
 def test_prediction_table_reads_back_as_an_input_table(tmp_path, monkeypatch):
     # user-guide §4 and file-formats.md: "The table is itself a valid fitkin input table."
     make_workspace(tmp_path)

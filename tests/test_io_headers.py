@@ -114,6 +114,46 @@ def test_pressure_column_in_kpa(tmp_path):
     assert read_table(path).get("viscosity").pressure[0] == pytest.approx(101325.0)
 
 
+# Invented D values of argon's size near 1 atm (synthetic, cm²/s).
+@pytest.mark.parametrize("header, pascal", [
+    ("D at 1 atm [cm2/s]", 101325.0), ("self-diffusion at 101325 Pa [cm^2/s]", 101325.0),
+    ("Self diffusion coefficient at 2 bar (cm²/s)", 2e5),
+])
+def test_pressure_stated_in_a_property_header(tmp_path, header, pascal):
+    table = read_table(write(tmp_path, "d.csv", f"T [K],{header}\n300,0.188\n400,0.31\n"))
+    assert table.get("self_diffusion").pressure.tolist() == pytest.approx([pascal, pascal])
+    assert list(table.warnings) == []
+
+
+def test_header_pressure_fills_rows_without_and_must_agree_with_the_pressure_column(tmp_path):
+    table = read_table(write(tmp_path, "d.csv", "T [K],p [kPa],D at 1 atm [cm2/s]\n300,,0.188\n400,101.325,0.31\n"))
+    assert table.get("self_diffusion").pressure.tolist() == pytest.approx([101325.0, 101325.0])
+    with pytest.raises(InputProblems, match=r"row 3.*header states 101325 Pa .* pressure column gives another"):
+        read_table(write(tmp_path, "e.csv", "T [K],p [kPa],D at 1 atm [cm2/s]\n300,,0.188\n400,200,0.31\n"))
+
+
+def test_header_pressure_not_above_zero_and_other_at_phrases(tmp_path):
+    with pytest.raises(InputProblems, match="the pressure '0 bar' in the header must be above zero"):
+        read_table(write(tmp_path, "d.csv", "T [K],D at 0 bar [cm2/s]\n300,0.188\n"))
+    # 'at' followed by something that is not a pressure: an ordinary unknown column
+    table = read_table(write(tmp_path, "v.csv", "T [K],viscosity [uPa s],viscosity at 25 °C [uPa s]\n300,22.7,22.0\n"))
+    assert [s.kind for s in table.series] == ["viscosity"]
+    assert any("'viscosity at 25 °C [uPa s]' (C) is not a quantity fitkin reads" in w for w in table.warnings)
+
+
+def test_prediction_table_columns_that_are_not_measurements_are_one_warning(tmp_path):
+    text = ("T [K],viscosity [uPa s],viscosity lower 0.95 [uPa s],viscosity upper 0.95 [uPa s],"
+            "D at 101325 Pa [cm^2/s],D at 101325 Pa lower 0.95 [cm^2/s],D at 101325 Pa upper 0.95 [cm^2/s],"
+            "extrapolated\n300,22.7,22.6,22.8,0.188,0.187,0.189,no\n")
+    table = read_table(write(tmp_path, "t.csv", text))
+    assert sorted(s.kind for s in table.series) == ["self_diffusion", "viscosity"]
+    assert list(table.warnings) == [f"{tmp_path / 't.csv'}: the band limits (columns C, D, F, G) and the 'extrapolated' "
+                              "flag (column H) of a fitkin prediction table are not measured data; left out"]
+    table = read_table(write(tmp_path, "f.csv", "T [K],viscosity [uPa s],extrapolated\n300,22.7,no\n"))
+    assert list(table.warnings) == [f"{tmp_path / 'f.csv'}: the 'extrapolated' flag (column C) of a fitkin prediction "
+                              "table is not measured data; left out"]
+
+
 def test_units_override_applies_to_columns_without_a_unit(tmp_path):
     path = write(tmp_path, "o.csv", "T,viscosity,u(viscosity)\n300,22.7,0.05\n")
     table = read_table(path, units={"temperature": "°C", "eta": "µPa s", "u(mu)": "uPa s"})

@@ -91,9 +91,9 @@ class TableAssembler:
                 continue
             if spec.kind.positive:
                 self.problems += validate.check_positive(spec, values, si[kind], self.rows, self.file)
-            point_pressure = pressure
+            point_pressure = self._header_pressure(spec, values, pressure)
             if kind in PRESSURE_KINDS:
-                point_pressure = self._pressure_of_points(spec, values, pressure, quantities)
+                point_pressure = self._pressure_of_points(spec, values, point_pressure, quantities)
                 scale = point_pressure / DIFFUSION_REFERENCE_PRESSURE
                 self.problems += validate.check_plausible(
                     spec, values, si[kind], self.rows, self.file, scale=scale,
@@ -175,6 +175,20 @@ class TableAssembler:
         if warning:
             self.warnings.append(warning)
         return pascal
+
+    def _header_pressure(self, spec, values, pressure) -> np.ndarray:
+        """The rows' pressures, with the pressure the column's header states ('D at 1 atm') for
+        rows that give none; a problem where a row's own pressure contradicts the header's."""
+        if spec.pressure is None:
+            return pressure
+        clash = np.isfinite(values) & np.isfinite(pressure) & ~np.isclose(pressure, spec.pressure, rtol=1e-6)
+        if clash.any():
+            self.problems.append(InputError(
+                f"the header states {spec.pressure:g} Pa for every {spec.kind.label} value, but the pressure "
+                f"column gives another pressure ({validate.format_rows(self.rows[clash])})", file=self.file,
+                row=int(self.rows[np.argmax(clash)]), column=spec.header,
+                hint="state the pressure in one place: the header or the pressure column"))
+        return np.where(np.isfinite(pressure), pressure, spec.pressure)
 
     def _pressure_of_points(self, spec, values, pressure, quantities) -> np.ndarray:
         """The pressure of each point of a pressure-dependent kind (D ∝ 1/p): the row's own,

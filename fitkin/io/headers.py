@@ -4,7 +4,11 @@ A header cell is a quantity name followed by its unit in square brackets or pare
 ``T [K]``, ``Temperature (°C)``, ``k (mW/(m·K))``, or in quantity-calculus form ``T / K``. A standard uncertainty uses the GUM
 notation ``u(<name>)`` with an absolute unit (``u(viscosity) [µPa s]``) or percent for a
 relative one (``u(k) [%]``); ``<name>`` is any synonym of a quantity in the table. A column
-named ``source`` or ``dataset`` labels the points. Other columns are ignored with a warning.
+named ``source`` or ``dataset`` labels the points. A property name may carry the pressure of
+every point of its column, ``D at 1 atm [cm2/s]`` (fitkin's own prediction tables write
+``self-diffusion at 101325 Pa [cm^2/s]``). The band limits ``NAME lower 0.95 [unit]`` /
+``NAME upper 0.95 [unit]`` and the ``extrapolated`` column of a prediction table are not
+measurements: they are left out with one warning. Other columns are ignored with a warning.
 """
 from __future__ import annotations
 
@@ -24,6 +28,12 @@ __all__ = ["ColumnSpec", "split_header", "gum_parts", "column_letter", "parse_he
            "parse_unit_overrides"]
 
 _GUM = re.compile(r"^(?P<letter>[uU])\s*\(\s*(?P<inner>[^()]*?)\s*\)\s*(?P<rest>.*)$")
+#: 'D at 1 atm': a property name and the pressure of its points.
+_AT_PRESSURE = re.compile(r"^(?P<name>.+?)\s+at\s+(?P<pressure>[-+−]?[\d.].*)$", re.IGNORECASE)
+#: 'viscosity lower 0.95', 'D at 1 bar upper 0.9': a band limit of a fitkin prediction table.
+_BAND_LIMIT = re.compile(r"^(?P<name>.+?)\s+(?:lower|upper)\s+(?:0?\.\d+|0|1)$", re.IGNORECASE)
+#: Columns of a prediction table that are not measurements (besides the band limits).
+_PREDICTION_FLAGS = ("extrapolated",)
 
 
 @dataclass(frozen=True)
@@ -40,6 +50,8 @@ class ColumnSpec:
     unit : the parsed unit (None for source/ignored/blank columns or an unusable unit).
     unit_text : the unit as written in the header, or as given by ``units=``.
     relative : an uncertainty given in percent of the value.
+    pressure : Pa, the pressure stated in the header for every point of a property column
+        (``'D at 1 atm [cm2/s]'``), or None.
     """
 
     index: int
@@ -50,6 +62,7 @@ class ColumnSpec:
     unit: pint.Unit | None = None
     unit_text: str | None = None
     relative: bool = False
+    pressure: float | None = None
 
 
 def column_letter(index: int) -> str:
@@ -174,6 +187,7 @@ def parse_header(cells, *, row: int, file: str,
     specs: list[ColumnSpec] = []
     problems: list[InputError] = []
     warnings: list[str] = []
+    not_measured: list[ColumnSpec] = []  # band limits and flags of a fitkin prediction table
     for index, cell in enumerate(cells):
         header = "" if cell is None else str(cell).strip()
         letter = column_letter(index)
@@ -185,18 +199,26 @@ def parse_header(cells, *, row: int, file: str,
         if gum:
             spec = _uncertainty_spec(index, header, letter, gum, overrides, where, problems)
         else:
-            spec = _quantity_spec(index, header, letter, overrides, where, problems, warnings)
+            spec = _quantity_spec(index, header, letter, overrides, where, problems, warnings, not_measured)
         specs.append(spec)
+    if not_measured:
+        warnings.append(_not_measured_warning(file, not_measured))
     _check_duplicates(specs, row, file, problems)
     _check_uncertainty_targets(specs, row, file, problems)
     return specs, problems, warnings
 
 
-def _quantity_spec(index, header, letter, overrides, where, problems, warnings) -> ColumnSpec:
+def _quantity_spec(index, header, letter, overrides, where, problems, warnings, not_measured) -> ColumnSpec:
     name, unit_text = split_header(header)
     if normalize_name(name) in SOURCE_NAMES:
         return ColumnSpec(index, header, letter, "source")
     kind = lookup_kind(name)
+    pressure = None
+    if kind is None:
+        kind, pressure = _name_at_pressure(name, where, problems)
+    if kind is None and _is_prediction_extra(name):
+        not_measured.append(ColumnSpec(index, header, letter, "ignored"))
+        return not_measured[-1]
     if kind is None:
         warnings.append(f"{where['file']}: column '{header}' ({letter}) is not a quantity fitkin "
                         f"reads and was ignored")
@@ -205,7 +227,53 @@ def _quantity_spec(index, header, letter, overrides, where, problems, warnings) 
                                     where, problems, key=kind.synonyms[0])
     if unit is not None and not _dimension_ok(unit, unit_text, kind, where, problems):
         unit = None
-    return ColumnSpec(index, header, letter, "quantity", kind, unit, unit_text)
+    return ColumnSpec(index, header, letter, "quantity", kind, unit, unit_text, pressure=pressure)
+
+
+def _name_at_pressure(name: str, where: dict, problems: list) -> tuple[QuantityKind | None, float | None]:
+    """'D at 1 atm' -> (self-diffusion, 101325.0); (None, None) when the name is not of that form,
+    names no property or what follows 'at' is not a pressure (such a column is ignored with the
+    usual warning). A pressure that is not above zero is a problem."""
+    match = _AT_PRESSURE.match(name.strip())
+    kind = lookup_kind(match.group("name")) if match else None
+    if kind is None or kind.role != "property":
+        return None, None
+    text = match.group("pressure").strip()
+    try:
+        pascal = units.parse_quantity(text, "Pa", name="header pressure")
+    except InputError:
+        return None, None
+    if not 0 < pascal < float("inf"):
+        problems.append(InputError(f"the pressure '{text}' in the header must be above zero", **where,
+                                   hint=f"write the pressure the {kind.label} values were measured at"))
+        return kind, None
+    return kind, float(pascal)
+
+
+def _not_measured_warning(file: str, specs: list[ColumnSpec]) -> str:
+    """One line for the band limits and flags of a prediction table read back as input."""
+    flags = [s for s in specs if normalize_name(split_header(s.header)[0]) in _PREDICTION_FLAGS]
+    limits = [s for s in specs if s not in flags]
+    parts = []
+    if limits:
+        parts.append(f"the band limits (column{'s' if len(limits) > 1 else ''} "
+                     f"{', '.join(s.letter for s in limits)})")
+    for s in flags:
+        parts.append(f"the '{s.header}' flag (column {s.letter})")
+    verb = "is" if len(parts) == 1 and not limits else "are"
+    return f"{file}: {' and '.join(parts)} of a fitkin prediction table {verb} not measured data; left out"
+
+
+def _is_prediction_extra(name: str) -> bool:
+    """A band-limit column or the extrapolated flag of a fitkin prediction table."""
+    if normalize_name(name) in _PREDICTION_FLAGS:
+        return True
+    match = _BAND_LIMIT.match(name.strip())
+    if not match:
+        return False
+    inner = match.group("name")
+    return lookup_kind(inner) is not None or _AT_PRESSURE.match(inner) is not None \
+        and lookup_kind(_AT_PRESSURE.match(inner).group("name")) is not None
 
 
 def _uncertainty_spec(index, header, letter, gum, overrides, where, problems) -> ColumnSpec:
