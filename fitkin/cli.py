@@ -104,7 +104,8 @@ def _add_plan_parser(sub) -> None:
                    help="parameter draws the criterion is averaged over (default 100)")
     p.add_argument("--seed", type=int, default=0, help="seed of the draws and of --verify (default 0)")
     p.add_argument("--verify", type=int, metavar="R", help="check by simulating R data sets per design and fitting them")
-    p.add_argument("--out", metavar="DIR", help="write DIR/plan.csv and DIR/plan.json")
+    p.add_argument("--out", metavar="DIR", help="write DIR/plan.csv, DIR/plan.json and DIR/plan.html")
+    p.add_argument("--no-html", action="store_true", help="do not write DIR/plan.html")
     p.add_argument("--force", action="store_true", help="replace existing outputs in DIR")
 
 

@@ -190,3 +190,31 @@ def test_cli_plan_needs_a_prior_or_a_fit(capsys):
     assert "needs a prior for sigma, epsilon_over_k" in capsys.readouterr().err
     assert main(["plan", "--range", "200:1000:10", "--points", "4", "--uncertainty", "1%"]) == 2
     assert "say what is known" in capsys.readouterr().err
+
+
+def test_discriminate_goal_finds_where_the_shapes_part(saved_fit, capsys):
+    plan = plan_measurements(saved_fit, grid="200:1000:10", points=4, uncertainty="0.3%",
+                             goals=["discriminate:lj,mie:16"], draws=10)
+    power_plan, power_uniform = -plan.values["plan"], -plan.values["uniform"]
+    assert power_plan > power_uniform > 0
+    # the data lie at 250–400 K, where the matched shapes agree: the plan measures away from them
+    assert all(t < 250 or t > 400 for t in plan.temperatures)
+    assert main(["plan", str(saved_fit), "--range", "200:1000:10", "--points", "2", "--uncertainty", "0.3%",
+                 "--goal", "discriminate:lj,mie:16", "--draws", "10"]) == 0
+    assert "expected power to tell the shapes apart" in capsys.readouterr().out
+    assert main(["plan", "--formula", "Ar", "--critical", "Tc=150.7 K, Pc=4.86 MPa", "--range", "200:1000:10",
+                 "--points", "2", "--uncertainty", "0.3%", "--goal", "discriminate:lj,mie:16", "--draws", "10"]) == 2
+    assert "needs a saved fit" in capsys.readouterr().err
+
+
+def test_plan_html_is_one_self_contained_page(saved_fit, tmp_path):
+    out = tmp_path / "plan"
+    assert main(["plan", str(saved_fit), "--range", "200:1000:10", "--points", "3", "--uncertainty", "0.3%",
+                 "--draws", "10", "--out", str(out)]) == 0
+    page = (out / "plan.html").read_text()
+    assert page.startswith("<!DOCTYPE html>") and page.count("<svg") == 1
+    assert "Recommended measurements" in page and "after the plan" in page
+    assert 'src="' not in page and "<link" not in page          # nothing loaded from elsewhere
+    assert main(["plan", str(saved_fit), "--range", "200:1000:10", "--points", "3", "--uncertainty", "0.3%",
+                 "--draws", "10", "--out", str(tmp_path / "bare"), "--no-html"]) == 0
+    assert not (tmp_path / "bare" / "plan.html").exists() and (tmp_path / "bare" / "plan.csv").exists()

@@ -68,7 +68,7 @@ def run_plan(args, out) -> int:
         result = verify_plan(result, replications=args.verify, seed=args.seed)
     print(result.table(), file=out)
     if args.out:
-        paths = write_plan(result, args.out, force=args.force)
+        paths = write_plan(result, args.out, force=args.force, html=not args.no_html)
         print("\n".join(f"{name} written to {p}" for name, p in
                         (("Plan table (fill in the values)", paths["csv"]), ("Plan record", paths["json"]),
                          ("Plan figure", paths.get("html"))) if p is not None), file=out)

@@ -48,7 +48,7 @@ class Knowledge:
     center : (p,) point estimate.   covariance : (p, p) current covariance (report units).
     draws : (D, p) parameter draws.   source : "posterior samples", "covariance" or "prior".
     label : the potential's label.   seed : the seed of the draws.
-    measured : (T (K), kind) of the points behind a saved fit, for the figure; empty for a prior.
+    measured : ((T K, kind, u SI), ...) of the points behind a saved fit; empty for a prior.
     description : what the knowledge came from, for plan.json.
     """
 
@@ -84,8 +84,13 @@ class Knowledge:
 
 
 def _measured_points(record: dict) -> tuple:
-    return tuple((float(r["T_K"]), str(r["property"])) for r in record.get("residuals") or ()
-                 if "T_K" in r and "property" in r)
+    """((T K, kind, u SI), ...) of the fit's points; u is NaN where the file stated none."""
+    out = []
+    for r in record.get("residuals") or ():
+        if "T_K" in r and "property" in r:
+            u = r.get("uncertainty_SI")
+            out.append((float(r["T_K"]), str(r["property"]), float(u) if u is not None else float("nan")))
+    return tuple(out)
 
 
 def knowledge_from_fit(fit, *, draws: int = DEFAULT_DRAWS, seed: int = 0) -> Knowledge:

@@ -1,5 +1,5 @@
-"""The files of a plan: plan.csv (a fitkin input table with blank property columns) and
-plan.json (inputs, criterion, expected uncertainties, seed).
+"""The files of a plan: plan.csv (a fitkin input table with blank property columns),
+plan.json (inputs, criterion, expected uncertainties, seed) and plan.html (:mod:`.html`).
 
 Every file is written atomically and an existing one is replaced only with ``force``; all
 paths are checked before anything is written, so a refusal leaves nothing half done.
@@ -11,11 +11,12 @@ from pathlib import Path
 
 from ..io.atomic import check_can_write, write_text_atomic
 from ..measurements import PRESSURE_KINDS
+from .html import plan_html_text
 from .result import PlanResult
 
-__all__ = ["plan_csv_text", "plan_json_text", "write_plan", "PLAN_CSV", "PLAN_JSON", "CSV_UNITS"]
+__all__ = ["plan_csv_text", "plan_json_text", "write_plan", "PLAN_CSV", "PLAN_JSON", "PLAN_HTML", "CSV_UNITS"]
 
-PLAN_CSV, PLAN_JSON = "plan.csv", "plan.json"
+PLAN_CSV, PLAN_JSON, PLAN_HTML = "plan.csv", "plan.json", "plan.html"
 #: Unit of each property column of plan.csv (header unit, factor from SI to it).
 CSV_UNITS = {"viscosity": ("uPa s", 1e6), "conductivity": ("mW/(m K)", 1e3), "self_diffusion": ("cm^2/s", 1e4),
              "second_virial": ("cm^3/mol", 1e6)}
@@ -61,11 +62,17 @@ def plan_json_text(result: PlanResult) -> str:
     return json.dumps(result.to_record(), indent=2, ensure_ascii=False) + "\n"
 
 
-def write_plan(result: PlanResult, out_dir, *, force: bool = False) -> dict:
-    """Write plan.csv and plan.json into ``out_dir``; return {"csv": path, "json": path}."""
+def write_plan(result: PlanResult, out_dir, *, force: bool = False, html: bool = True) -> dict:
+    """Write plan.csv, plan.json and (with ``html``) plan.html into ``out_dir``; return their paths
+    under "csv", "json" and "html"."""
     out_dir = Path(out_dir)
     targets = {"csv": out_dir / PLAN_CSV, "json": out_dir / PLAN_JSON}
+    if html:
+        targets["html"] = out_dir / PLAN_HTML
     for p in targets.values():
         check_can_write(p, force)
-    return {"csv": write_text_atomic(targets["csv"], plan_csv_text(result), force=force),
-            "json": write_text_atomic(targets["json"], plan_json_text(result), force=force)}
+    paths = {"csv": write_text_atomic(targets["csv"], plan_csv_text(result), force=force),
+             "json": write_text_atomic(targets["json"], plan_json_text(result), force=force)}
+    if html:
+        paths["html"] = write_text_atomic(targets["html"], plan_html_text(result), force=force)
+    return paths

@@ -16,7 +16,7 @@ from ..inference.model import is_monatomic
 from ..measurements import PROPERTY_KINDS
 from .criteria import DOptimal, GoalVariance
 from .design import design_precision, select_design
-from .discriminate import discrimination_criterion
+from .discriminate import discrimination_at, rivals_for
 from .fisher import Predictor, information_vectors, relative_or_absolute
 from .fisher import points as prediction_points
 from .knowledge import DEFAULT_DRAWS, Knowledge, knowledge_from_fit
@@ -215,7 +215,9 @@ def plan_measurements(known, *, grid, points: int, properties=("viscosity",), un
     elif goal_list[0].form == "quantity":
         criterion = GoalVariance(goal_c)
     else:
-        criterion = discrimination_criterion(k, goal_list[0], cand_kinds, cand_T, values[:, :nc], u_fun, pressure)
+        rivals = rivals_for(k, goal_list[0], pressure)
+        criterion = discrimination_at(k, rivals, cand_kinds, cand_T, relative_or_absolute(cand_kinds, u_by_kind),
+                                      pressure)
     chosen, value = select_design(criterion, prior, a_cand, points)
     plan_points = tuple((str(cand_kinds[i]), float(cand_T[i])) for i in chosen)
     precisions = {"now": prior, "plan": design_precision(prior, a_cand, chosen),
@@ -223,7 +225,17 @@ def plan_measurements(known, *, grid, points: int, properties=("viscosity",), un
     if isinstance(criterion, (DOptimal, GoalVariance)):
         scores = {name: criterion.value(np.linalg.inv(P)) for name, P in precisions.items()}
     else:
-        scores = {"plan": value}
+        uni_kinds = [kd for kd, _ in uniform]
+        uni = discrimination_at(k, rivals, uni_kinds, [t for _, t in uniform],
+                                relative_or_absolute(uni_kinds, u_by_kind), pressure)
+        scores = {"plan": value, "uniform": uni.design_value(np.arange(nu)), "now": 0.0}
+        if -value < 1e-6:
+            warnings.append(f"no temperature in {grid.low:g}–{grid.high:g} K tells the shapes apart: "
+                            f"{', '.join(r.label for r in rivals)} reproduce{'s' if len(rivals) == 1 else ''} the "
+                            f"fitted {k.label} curve there (a shape that contains the other, as Mie with n free "
+                            "contains Lennard-Jones, can match it everywhere)")
+        warnings += [f"the {r.label} potential matches the fit at the measured points with χ² = {r.match_chi2:.3g}"
+                     for r in rivals if r.match_chi2 > len(k.measured)]
     rows = _rows(k, s, goal_values, goal_c, quantity_goals, precisions)
     inputs = {"range": grid.text, "range_K": [grid.low, grid.high], "candidates": int(m), "points": int(points),
               "properties": list(kinds), "uncertainty": {kd: u.describe() for kd, u in u_by_kind.items()},

@@ -115,6 +115,10 @@ class PlanResult:
                 value = f"{r.value:.5g}"
             lines.append(f"    {name:<26s} {value:>11s} " + " ".join(f"{v:11.4g}" for v in vals)
                          + f" {100 * r.gain:5.0f}%")
+        if any(g.startswith("discriminate:") for g in self.goals):
+            lines.append(f"  expected power to tell the shapes apart (χ² of the difference after the rival refits): "
+                         f"plan {-self.values['plan']:.3g}, uniform {-self.values['uniform']:.3g} "
+                         "(about 9 or more, three standard uncertainties, tells them apart)")
         if self.verification is not None:
             lines += self.verification.lines()
         lines += [f"  warning: {w}" for w in self.warnings]
