@@ -13,9 +13,11 @@ import pytest
 
 from fitkin.cli import main
 from fitkin.inference.corresponding_states import CriticalConstants, tee_gotoh_stewart
-from fitkin.inference.fit_checks import LOWEST_PLAUSIBLE_T_STAR
+from fitkin.inference.fit_checks import LOWEST_PLAUSIBLE_T_STAR, undetermined_ratio
+from fitkin.inference.model import ForwardModel
 from fitkin.potentials import LennardJones
 from fitkin.species import Gas
+from fitkin.theory.internal import InternalEnergyTransport
 from fitkin.theory.transport import TransportModel
 
 ARGON = Gas.from_formula("Ar")
@@ -185,3 +187,31 @@ def test_narrow_data_with_a_prior_on_epsilon_are_sampled_not_refused(tmp_path, c
     assert 100 < eps["median"] < 190  # the prior (143 ± 10 K) fixes what the data cannot
     ridge = next(x for x in out.splitlines() if "long ridge" in x)
     assert "another property" not in ridge and "B(T)" in ridge
+
+
+def test_a_parameter_whose_natural_value_is_zero_is_judged_against_its_range(tmp_path, capsys):
+    # CO₂-like data from fitkin's own rotation-vibration model with an effective slope of
+    # ρD_vib/ρD of exactly 0 (σ, ε/k, Z_rot invented for the test): the fitted slope comes out
+    # as about 0 ± 0.01, well determined in its allowed range −1 to 1, yet "10 times its value"
+    free = ("z_rot_inf", "vibrational_diffusion_slope")
+    internal = InternalEnergyTransport("rotation_vibration", free=free)
+    model = ForwardModel(gas=Gas.from_file(SAMPLE_CO2), potential=LennardJones(), internal=internal)
+    theta = {"sigma": 3.73, "epsilon_over_k": 260.0, "z_rot_inf": 11.0, "vibrational_diffusion_slope": 0.0}
+    T = np.linspace(260.0, 900.0, 14)
+    rng = np.random.default_rng(5)
+    mu = model.property("viscosity", theta, T) * (1 + 0.003 * rng.standard_normal(T.size))
+    k = model.property("conductivity", theta, T) * (1 + 0.005 * rng.standard_normal(T.size))
+    rows = ["T [K],viscosity [uPa s],u(viscosity) [%],k [mW/(m K)],u(k) [%]"]
+    rows += [f"{t:.2f},{m * 1e6:.5f},0.3,{c * 1e3:.5f},0.5" for t, m, c in zip(T, mu, k)]
+    (tmp_path / "co2.csv").write_text("\n".join(rows) + "\n", encoding="utf-8")
+    code, out, err = run(capsys, "fit", tmp_path / "co2.csv", "--gas", SAMPLE_CO2, "--out", tmp_path / "fit",
+                         "--conductivity-model", "rotation_vibration", "--fit-internal", ",".join(free), "--no-report")
+    assert code == 0, err
+    slope = json.loads((tmp_path / "fit" / "parameters.json").read_text())["parameters"]["vibrational_diffusion_slope"]
+    assert abs(slope["value"]) < slope["stderr"] < 0.05       # near 0, with a small standard error
+    assert "problem" not in slope and slope.get("determined") is not False
+    assert "FAILED" not in out
+    # the rule still fails a parameter kept away from zero whose error dwarfs it (Z_rot = 2 ± 1579),
+    # and a parameter whose range contains zero when ±2 standard errors cover the whole range
+    assert undetermined_ratio(2.0, 1579.0, (0.5, 1000.0)) > 1
+    assert undetermined_ratio(0.1, 0.6, (-1.0, 1.0)) > 1 and undetermined_ratio(0.001, 0.4, (-1.0, 1.0)) < 1

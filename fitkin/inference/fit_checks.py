@@ -1,9 +1,9 @@
 """What a least-squares fit says about itself, in plain language (no fitting here).
 
-* :func:`parameter_problems` — parameters the data do not determine (relative standard error
-  above :data:`UNDETERMINED_RELATIVE_ERROR`, or none at all) and parameters that ended at a
-  bound: each is a failed fit *for that parameter*, named in the summary, the parameter
-  file and the report.
+* :func:`parameter_problems` — parameters the data do not determine (a standard error large
+  against the parameter's scale, see :func:`undetermined_ratio`, or none at all) and
+  parameters that ended at a bound: each is a failed fit *for that parameter*, named in the
+  summary, the parameter file and the report.
 * :func:`diagnose` — every warning of a fit: convergence, σ–ε/k degeneracy, narrow range,
   χ² too large or too small, failed parameters with where their bounds come from,
   implausible ε/k for the gas (corresponding states), data at implausible T*, quantum regime.
@@ -19,12 +19,18 @@ from ..theory.quantum import QUANTUM_WARNING_RATIO, thermal_wavelength_ratio
 from .corresponding_states import corresponding_states_estimate
 from .result import FitResult
 
-__all__ = ["diagnose", "parameter_problems", "require_determined", "bound_origin",
-           "UNDETERMINED_RELATIVE_ERROR", "CORRELATION_WARNING", "NARROW_RANGE_RATIO",
+__all__ = ["diagnose", "parameter_problems", "require_determined", "bound_origin", "undetermined_ratio",
+           "UNDETERMINED_RELATIVE_ERROR", "UNDETERMINED_RANGE_SHARE", "CORRELATION_WARNING", "NARROW_RANGE_RATIO",
            "CORRESPONDING_STATES_FACTOR", "LOWEST_PLAUSIBLE_T_STAR", "SMALL_CHI2_P"]
 
-#: A parameter whose standard error exceeds its magnitude times this is not determined.
+#: A parameter kept away from zero by its bounds (σ, ε/k, n, Z_rot) whose standard error
+#: exceeds its magnitude times this is not determined.
 UNDETERMINED_RELATIVE_ERROR = 1.0
+#: A parameter whose allowed range contains zero (a slope, an offset, an extra scatter: 0 is a
+#: natural value, so its magnitude is no scale) is not determined when its standard error
+#: exceeds this share of the range, i.e. when ±2 standard errors span more than the whole
+#: range (common practice: the data then add little to the bounds).
+UNDETERMINED_RANGE_SHARE = 0.25
 CORRELATION_WARNING = 0.98
 NARROW_RANGE_RATIO = 1.5
 #: ε/k more than this factor away from the corresponding-states estimate (ε/k ≈ 0.77 T_c) is
@@ -83,14 +89,53 @@ def bound_origin(result: FitResult, name: str, side: str) -> str:
     return "the range fitkin allows for it"
 
 
+def undetermined_ratio(value: float, stderr: float, bounds=None) -> float:
+    """A parameter's standard error against the scale it is judged by; above 1 it is not
+    determined by the data.
+
+    The scale is :data:`UNDETERMINED_RELATIVE_ERROR` × |value| for a parameter whose bounds keep
+    it away from zero, and :data:`UNDETERMINED_RANGE_SHARE` × (upper − lower) for one whose
+    finite bounds contain zero, whose value may rightly be 0 or close to it.
+
+    >>> round(undetermined_ratio(-0.001, 0.0102, (-1.0, 1.0)), 3)   # a slope near 0, well fixed
+    0.02
+    >>> round(undetermined_ratio(2.0, 1579.0, (0.5, 1000.0)), 1)    # Z_rot = 2 ± 1579
+    789.5
+    """
+    if not np.isfinite(stderr):
+        return float("inf")
+    lo, hi = bounds if bounds is not None else (-np.inf, np.inf)
+    if np.isfinite(lo) and np.isfinite(hi) and lo <= 0.0 <= hi and hi > lo:
+        return float(stderr / (UNDETERMINED_RANGE_SHARE * (hi - lo)))
+    if value == 0:
+        return float("inf") if stderr > 0 else 0.0
+    return float(stderr / (UNDETERMINED_RELATIVE_ERROR * abs(value)))
+
+
+def _undetermined_text(p, bounds) -> str | None:
+    """Why parameter estimate ``p`` is not determined, or None when it is."""
+    if not np.isfinite(p.stderr):
+        return "not determined (no standard error could be estimated)"
+    if undetermined_ratio(p.value, p.stderr, bounds) <= 1.0:
+        return None
+    lo, hi = bounds if bounds is not None else (-np.inf, np.inf)
+    if np.isfinite(lo) and np.isfinite(hi) and lo <= 0.0 <= hi:
+        return (f"not determined by these data (standard error {p.stderr:.3g}: ±2 standard errors span more "
+                f"than its whole allowed range {lo:g} to {hi:g})")
+    return (f"not determined by these data (standard error {p.stderr:.3g}, "
+            f"{p.stderr / abs(p.value):.3g} times the value)")
+
+
 def parameter_problems(result: FitResult) -> dict[str, str]:
     """{name: short reason} for every varied parameter the fit failed to determine.
 
     A parameter fails when it ends at a bound of the search, or when its standard error is
-    not finite or exceeds :data:`UNDETERMINED_RELATIVE_ERROR` times its magnitude.
+    not finite or large against its scale (:func:`undetermined_ratio`: its magnitude, or for a
+    parameter whose range contains zero, the width of that range).
     """
     out = {}
-    for name, (lo, hi) in (result.extra.get("bounds") or {}).items():
+    all_bounds = result.extra.get("bounds") or {}
+    for name, (lo, hi) in all_bounds.items():
         p = result.parameters[name]
         if not p.vary:
             continue
@@ -100,12 +145,9 @@ def parameter_problems(result: FitResult) -> dict[str, str]:
     for name in result.names:
         if name in out:
             continue
-        p = result.parameters[name]
-        if not np.isfinite(p.stderr):
-            out[name] = "not determined (no standard error could be estimated)"
-        elif p.value != 0 and p.stderr > UNDETERMINED_RELATIVE_ERROR * abs(p.value):
-            out[name] = (f"not determined by these data (standard error {p.stderr:.3g}, "
-                         f"{p.stderr / abs(p.value):.3g} times the value)")
+        text = _undetermined_text(result.parameters[name], all_bounds.get(name))
+        if text:
+            out[name] = text
     return out
 
 

@@ -30,7 +30,7 @@ from ..formatting import count_of
 from ..species import Gas
 from ..theory.internal import InternalEnergyTransport
 from .fitdata import FitData
-from .fit_checks import diagnose, parameter_problems
+from .fit_checks import UNDETERMINED_RANGE_SHARE, diagnose, parameter_problems, undetermined_ratio
 from .leastsq import fit_least_squares, resolve_internal
 from .model import ForwardModel, with_shape
 from .result import FitResult
@@ -46,8 +46,8 @@ SHIFT_WARNING = 2.0
 #: An internal parameter whose stage-2 standard error exceeds this share of its allowed range
 #: is not determined by the conductivity; when fitkin chose the free set it is then held at its
 #: default (common practice: a standard error of a quarter of the physically allowed range
-#: means the data add little to the bounds).
-UNDETERMINED_SHARE = 0.25
+#: means the data add little to the bounds; the fit checks' rule for ranges containing zero).
+UNDETERMINED_SHARE = UNDETERMINED_RANGE_SHARE
 
 
 def subset(data: FitData, mask) -> FitData:
@@ -122,7 +122,7 @@ def _undetermined(result: FitResult, internal) -> str | None:
         share = err / (hi - lo) if np.isfinite(err) else np.inf
         if n not in problems and share <= UNDETERMINED_SHARE:
             continue
-        score = np.inf if not np.isfinite(err) else max(share, err / max(abs(value), 1e-12))
+        score = max(share, undetermined_ratio(value, err, (lo, hi)))
         if name is None or score > worst:
             worst, name = score, n
     return name
