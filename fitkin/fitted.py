@@ -17,6 +17,7 @@ from .inference.model import ANGSTROM, ForwardModel, is_monatomic
 from .inference.posterior import posterior_draws, predictive_band
 from .io.parameter_file import read_parameter_file
 from .io.record_check import check_record
+from .io.residuals import RESIDUAL_FIELDS, read_residuals
 from .potentials import potential_from_record
 from .measurements import SI_UNITS
 from .species import Gas
@@ -128,6 +129,18 @@ class FittedGas:
             raise ParameterFileError(f"{self.path or 'the parameter record'}: data.temperature_range_K is missing, "
                                      "so the measured range (and what is extrapolated) is unknown")
         return tuple(data["temperature_range_K"])
+
+    def residuals(self) -> pd.DataFrame:
+        """Every fitted point's residual, one row each (columns as the parameter file's
+        ``residuals`` entries, SI units; ``uncertainty_SI`` NaN where none was stated).
+
+        A fit of more than a few thousand points keeps them in a sidecar beside the parameter
+        file (``residuals.npz``, see docs/file-formats.md); it is read here and checked
+        against its recorded SHA-256, so a missing or changed sidecar raises
+        :class:`ParameterFileError` (the parameters themselves load without it).
+        """
+        cols = read_residuals(self.record, self.path or "the parameter record")
+        return pd.DataFrame({k: getattr(cols, k) for k in RESIDUAL_FIELDS})
 
     def _theta(self) -> dict:
         return {k: v["value"] for k, v in self.record["parameters"].items()}

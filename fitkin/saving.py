@@ -19,6 +19,7 @@ from .inference.staged import conductivity_record
 from .inference.posterior import save_samples
 from .io.atomic import check_can_write
 from .io.parameter_file import result_to_record, write_parameter_file
+from .io.residuals import INLINE_LIMIT, sidecar_path
 from .report import REPORT_NAME, write_report
 
 __all__ = ["PARAMETERS_NAME", "SAMPLES_NAME", "fit_record", "save_fit", "write_report_safely"]
@@ -61,8 +62,9 @@ def fit_record(result, tables=(), *, label: str | None = None, posterior=None, s
 
 def save_fit(result, out_dir, *, tables=(), posterior=None, report: bool = True, force: bool = False,
              label: str | None = None, report_pressure: float = 101325.0, extra: dict | None = None) -> dict:
-    """Write ``out_dir/parameters.json`` (and ``samples.npz`` with a posterior, and
-    ``report.html`` with its figures); never replaces an existing file unless ``force``.
+    """Write ``out_dir/parameters.json`` (and ``samples.npz`` with a posterior, ``residuals.npz``
+    for more than :data:`fitkin.io.residuals.INLINE_LIMIT` points, and ``report.html`` with
+    its figures); never replaces an existing file unless ``force``.
 
     A report that cannot be made does not undo the fit: the parameter file (and samples) are
     written first, and the report's problem comes back as one sentence under
@@ -73,6 +75,8 @@ def save_fit(result, out_dir, *, tables=(), posterior=None, report: bool = True,
     """
     out_dir = Path(out_dir)
     planned = [out_dir / PARAMETERS_NAME]
+    if len(result.data) > INLINE_LIMIT:
+        planned.append(sidecar_path(out_dir / PARAMETERS_NAME))
     if posterior is not None:
         planned.append(out_dir / SAMPLES_NAME)
     if report:

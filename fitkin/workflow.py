@@ -26,6 +26,7 @@ from .inference.staged import fit_with_conductivity, fitted_internal_model, summ
 from .inference.fit_checks import require_determined
 from .inference.sampling import sample_posterior
 from .io.parameter_file import write_parameter_file
+from .io.residuals import INLINE_LIMIT, sidecar_path
 from .report import REPORT_NAME
 from .saving import PARAMETERS_NAME, SAMPLES_NAME, fit_record, save_fit
 from .summary import format_fit_summary
@@ -184,6 +185,8 @@ def run_fit_job(tables, gas, *, potentials="lj", options: FitOptions | None = No
     others, planned = _planned_paths(out_dir, choices, opts)
     _check_outputs(planned, force)  # fail before the work, not after it
     data = FitData.from_tables(tables, kinds)
+    if len(data) > INLINE_LIMIT:  # every point's residual goes to a sidecar beside each parameter file
+        _check_outputs([sidecar_path(p) for p in (out_dir / PARAMETERS_NAME, *others)], force)
     _check_coverage(data, gas, opts)
     results = [_fit(data, gas, c, opts) for c in choices]
     if not _has_prior(opts, gas):

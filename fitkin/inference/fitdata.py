@@ -15,6 +15,7 @@ the data could fix). Both are :class:`~fitkin.errors.FitError` naming the file.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import cached_property
 
 import numpy as np
 
@@ -87,12 +88,20 @@ class FitData:
     def __len__(self) -> int:
         return len(self.temperature)
 
+    @cached_property
+    def _masks(self) -> dict:
+        """{kind: (n,) bool} for the kinds present, computed once (comparing an object array
+        of a million texts costs tens of milliseconds, and a fit asks for it at every step)."""
+        masks = {k: self.kind == k for k in PROPERTY_KINDS}
+        return {k: m for k, m in masks.items() if m.any()}
+
     @property
     def kinds(self) -> tuple[str, ...]:
-        return tuple(k for k in PROPERTY_KINDS if np.any(self.kind == k))
+        return tuple(self._masks)
 
     def mask(self, kind: str) -> np.ndarray:
-        return self.kind == kind
+        found = self._masks.get(kind)
+        return found.copy() if found is not None else np.zeros(len(self.kind), dtype=bool)
 
     @property
     def sigma_y(self) -> np.ndarray:

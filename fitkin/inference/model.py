@@ -264,8 +264,11 @@ class ForwardModel:
 
     def predict(self, theta: dict, data: FitData) -> np.ndarray:
         """(n,) predictions in SI for every point of ``data``."""
+        kinds = data.kinds
+        if len(kinds) == 1:  # one kind: no copies of the columns
+            return np.asarray(self.property(kinds[0], theta, data.temperature, data.pressure), dtype=float)
         out = np.empty(len(data))
-        for kind in data.kinds:
+        for kind in kinds:
             m = data.mask(kind)
             out[m] = self.property(kind, theta, data.temperature[m], data.pressure[m])
         return out

@@ -4,7 +4,9 @@ Layout (schema ``fitkin.parameters``, version :data:`SCHEMA_VERSION`): ``gas``, 
 (family and shape), ``parameters`` (each with value, standard error and unit: σ in ångström,
 ε/k in kelvin), ``covariance`` and ``correlation`` over the varied parameters, ``statistics``,
 ``theory`` (Sonine order, collision-integral source, computed T* range), ``data`` (files with
-their SHA-256, points per property, temperature range), ``residuals`` per point,
+their SHA-256, points per property, temperature range), ``residuals`` per point (above
+:data:`fitkin.io.residuals.INLINE_LIMIT` points a selection, every point in a compressed
+sidecar named under ``residuals_file``; see :mod:`fitkin.io.residuals`),
 ``warnings``, ``provenance`` (fitkin version, time, constants). docs/file-formats.md documents
 every field.
 """
@@ -21,8 +23,9 @@ import scipy
 from .. import __version__
 from ..errors import ParameterFileError
 from ..measurements import SIGNED_KINDS
-from .atomic import write_text_atomic
+from .atomic import check_can_write, write_text_atomic
 from .record_check import check_record
+from .residuals import ResidualColumns, residual_entries, write_residuals
 
 __all__ = ["SCHEMA_NAME", "SCHEMA_VERSION", "result_to_record", "write_parameter_file", "read_parameter_file"]
 
@@ -89,13 +92,7 @@ def result_to_record(result, tables=(), t_star_range=None) -> dict:
             "summary": data.summary(),
             "temperature_range_K": [float(data.temperature.min()), float(data.temperature.max())],
         },
-        "residuals": [
-            {"file": str(f), "row": int(r), "source": str(s), "property": str(k), "T_K": float(T),
-             "measured_SI": float(y), "uncertainty_SI": float(u), "model_SI": float(yh),
-             "deviation_percent": float(d)}
-            for f, r, s, k, T, y, u, yh, d in zip(data.file, data.rows, data.source, data.kind, data.temperature,
-                                                data.value, data.uncertainty, result.prediction, dev)
-        ],
+        **residual_entries(ResidualColumns.from_fit(data, result.prediction, dev)),
         "warnings": list(result.warnings),
         "provenance": {
             "fitkin_version": __version__,
@@ -110,7 +107,14 @@ def result_to_record(result, tables=(), t_star_range=None) -> dict:
 
 
 def write_parameter_file(record: dict, path, force: bool = False) -> Path:
-    """Write a record (see :func:`result_to_record`) as indented JSON, atomically."""
+    """Write a record (see :func:`result_to_record`) as indented JSON, atomically.
+
+    A record of more than :data:`fitkin.io.residuals.INLINE_LIMIT` points also writes its
+    residuals sidecar beside ``path`` (``residuals.npz`` for ``parameters.json``), first;
+    neither file replaces an existing one unless ``force``.
+    """
+    check_can_write(path, force)
+    record = write_residuals(record, path, force=force)
     text = json.dumps(_clean(record), indent=2, ensure_ascii=False) + "\n"
     return write_text_atomic(path, text, force=force)
 

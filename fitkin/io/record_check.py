@@ -225,6 +225,10 @@ def _check_residuals(c: _Checker, record: dict) -> None:
             c.number(point, key, f"residuals[{i}].{key}")
         if len(c.problems) > before:
             return  # one damaged point is enough to say
+    side = c.group(record, "residuals_file", required=False)
+    if side is not None and "columns" not in side:  # in memory, before writing, the columns are still there
+        c.text(side, "file", "residuals_file.file")
+        c.text(side, "sha256", "residuals_file.sha256")
 
 
 def _check_posterior(c: _Checker, record: dict) -> None:

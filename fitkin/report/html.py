@@ -15,9 +15,10 @@ from pathlib import Path
 import numpy as np
 
 from .. import __version__
-from ..errors import OutOfRangeError, OutputExistsError
+from ..errors import OutOfRangeError, OutputExistsError, ParameterFileError
 from ..io.atomic import check_can_write, write_bytes_atomic, write_text_atomic
 from ..io.parameter_file import read_parameter_file
+from ..io.residuals import read_residuals
 from ..formatting import format_estimate
 from . import figures as fg
 from . import style as st
@@ -49,6 +50,7 @@ def _prepare(record: dict, record_path=None, pressure: float = 101325.0) -> Repo
     T, ctx.curve_stops = fg.property_grid(model)
     ctx.findings = report_findings(record, model)
     ctx.findings += [Finding("note", text) for text in ctx.curve_stops]
+    ctx.findings += _sidecar_findings(record, record_path)
     for kind in st.shown_kinds(record):
         try:
             ctx.curves[kind] = model.curve(kind, T)
@@ -78,6 +80,29 @@ def _prepare(record: dict, record_path=None, pressure: float = 101325.0) -> Repo
     return ctx
 
 
+def _points_drawn(rec: dict, n_points: int) -> str:
+    """"all 40 points", or for a fit whose residuals are in a sidecar "2000 of the 10⁶ points
+    (a selection ...)"."""
+    side = rec.get("residuals_file")
+    total = side.get("points") if isinstance(side, dict) else None
+    if not isinstance(total, int) or total <= n_points:
+        return f"all {n_points} points"
+    return (f"{n_points} of the {total} points (evenly spaced in temperature, with the largest deviations; "
+            f"every point is in {side.get('file') or 'the residuals file beside the parameter file'})")
+
+
+def _sidecar_findings(record: dict, record_path) -> list:
+    """A warning when the residuals sidecar a big fit names is missing or changed."""
+    side = record.get("residuals_file")
+    if not isinstance(side, dict) or record_path is None or "columns" in side:
+        return []
+    try:
+        read_residuals(record, record_path)
+    except ParameterFileError as exc:
+        return [Finding("warning", f"{exc}; the figures show the selection of points kept in the parameter file")]
+    return []
+
+
 def _figures(ctx: ReportContext) -> None:
     rec, model = ctx.record, ctx.model
     summary = rec.get("data", {}).get("summary", {})
@@ -100,7 +125,7 @@ def _figures(ctx: ReportContext) -> None:
         ctx.add_figure("deviations", fg.deviation_figure(rec, ctx.curves),
                        "Deviations 100 (measured − fit)/fit against temperature"
                        + (" (for B: measured − fit in cm³/mol)" if has_b else "")
-                       + f"; all {n_points} points of the properties drawn, one marker per source ({bars}); "
+                       + f"; {_points_drawn(rec, n_points)} of the properties drawn, one marker per source ({bars}); "
                        "shaded: the fit's 95 % band.")
     sampled = bool(model.samples)
     if not rec["parameters"]["epsilon_over_k"].get("varied", True):

@@ -118,7 +118,37 @@ def _correction(problem, omega, T_star, order):
     if order == 1:
         return np.ones_like(t_star)
     values = _evaluate(omega, pairs, t_star)                      # (..., npairs)
-    m = np.einsum("pqk,...k->...pq", coefficients, values)        # (..., N, N)
+    n = coefficients.shape[0]
+    flat = values.reshape(-1, values.shape[-1])                   # (points, npairs)
+    m = (flat @ coefficients.reshape(n * n, -1).T).T.reshape(n, n, -1)   # (N, N, points)
+    f = _first_over_inverse(m)
+    if f is None:  # a zero pivot: fall back to LU with partial pivoting
+        f = _solved(np.moveaxis(m, -1, 0))
+    return f.reshape(t_star.shape)
+
+
+def _first_over_inverse(m):
+    """M₀₀ (M⁻¹)₀₀ for each point of m (N, N, points), by eliminating the trailing rows and
+    columns: what is left in place of M₀₀ is the Schur complement 1/(M⁻¹)₀₀. The bracket
+    matrix is symmetric positive definite for a real potential, so no pivoting is needed;
+    None when a pivot is zero or not finite (the caller then solves with pivoting)."""
+    n = m.shape[0]
+    a = [[m[i, j].copy() for j in range(n)] for i in range(n)]
+    for k in range(n - 1, 0, -1):
+        pivot = a[k][k]
+        if not np.all(np.isfinite(pivot) & (pivot != 0.0)):
+            return None
+        for i in range(k):
+            factor = a[i][k] / pivot
+            for j in range(k):
+                a[i][j] -= factor * a[k][j]
+    schur = a[0][0]
+    if not np.all(np.isfinite(schur) & (schur != 0.0)):
+        return None
+    return m[0, 0] / schur
+
+
+def _solved(m):
     rhs = np.zeros(m.shape[:-1])
     rhs[..., 0] = 1.0
     try:
