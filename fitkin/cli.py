@@ -15,7 +15,7 @@ from .cli_checks import check_arguments
 from .errors import FitkinError, FitkinWarning, InputProblems
 from .io.atomic import forget_written_paths, written_paths
 
-__all__ = ["main", "build_parser"]
+__all__ = ["main", "build_parser", "subcommand_parser"]
 
 EXIT_OK, EXIT_USER, EXIT_INTERNAL = 0, 2, 3
 #: Standard output closed by its reader (``fitkin ... | head -1``): what the shell reports for a
@@ -49,6 +49,10 @@ _EPILOG_PLAN = """examples:
   fitkin plan fit-argon/parameters.json --range 200:1000:5 --points 4 --uncertainty 0.3% --goal viscosity@1000K
   fitkin plan fit-argon/parameters.json --range 250:700:10 --points 6 --uncertainty 0.3% --out plan-ar
   fitkin plan --formula Ar --critical "Tc=150.7 K, Pc=4.86 MPa" --range 200:1000:10 --points 8 --uncertainty 0.5%
+"""
+_EPILOG_BATCH = """examples:
+  fitkin batch gases.toml --out batch-run             (one worker process per core)
+  fitkin batch gases.toml --out batch-run --jobs 1    (one job after another; a rerun skips finished jobs)
 """
 _EPILOG_DEMO = """examples:
   fitkin demo                       (writes ./fitkin-demo/)
@@ -210,12 +214,30 @@ def build_parser() -> argparse.ArgumentParser:
     p.add_argument("--pressure", default="101325 Pa", help="pressure for the mean free path (default 101325 Pa)")
 
     _add_plan_parser(sub)
+    _add_batch_parser(sub)
 
     p = sub.add_parser("demo", help="make the synthetic sample data and fit it, end to end",
                        epilog=_EPILOG_DEMO, formatter_class=argparse.RawDescriptionHelpFormatter)
     p.add_argument("--out", default="fitkin-demo", metavar="DIR", help="output folder (default ./fitkin-demo)")
     p.add_argument("--force", action="store_true", help="replace existing outputs in DIR")
     return parser
+
+
+def _add_batch_parser(sub) -> None:
+    p = sub.add_parser("batch", help="fit every job of a manifest (TOML); writes DIR/NAME/ per job, DIR/summary.csv "
+                                     "and DIR/index.html", epilog=_EPILOG_BATCH,
+                       formatter_class=argparse.RawDescriptionHelpFormatter)
+    p.add_argument("manifest", metavar="MANIFEST.toml", help="the jobs and their fit options (docs/file-formats.md)")
+    p.add_argument("--out", required=True, metavar="DIR", help="folder of the job folders and the summary")
+    p.add_argument("--force", action="store_true", help="redo every job, replacing earlier outputs in DIR")
+    p.add_argument("--jobs", type=int, metavar="N", help="worker processes (default: the number of cores; "
+                                                         "1 runs the jobs one after another in this process)")
+
+
+def subcommand_parser(name: str) -> argparse.ArgumentParser:
+    """The argument parser of one sub-command (e.g. "fit"), as ``fitkin NAME`` uses it."""
+    actions = [a for a in build_parser()._actions if isinstance(a, argparse._SubParsersAction)]
+    return actions[0].choices[name]
 
 
 def _left_behind() -> str:

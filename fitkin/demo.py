@@ -21,7 +21,8 @@ from .io.atomic import write_text_atomic
 from .species import Gas
 from .theory.transport import TransportModel
 
-__all__ = ["TRUE_PARAMETERS", "DEMO_SEED", "DEMO_GAS", "demo_tables", "write_demo_tables"]
+__all__ = ["TRUE_PARAMETERS", "DEMO_SEED", "DEMO_GAS", "demo_tables", "write_demo_tables", "synthetic_viscosity_csv",
+           "BATCH_EXAMPLE_GASES", "batch_example_tables"]
 
 #: Parameters the synthetic data are generated from (invented for the demo).
 TRUE_PARAMETERS = {"sigma": 3.65, "epsilon_over_k": 178.0}
@@ -71,3 +72,43 @@ def write_demo_tables(folder, force: bool = False, seed: int = DEMO_SEED) -> lis
     """Write the synthetic tables into ``folder`` and return their paths."""
     folder = Path(folder)
     return [write_text_atomic(folder / name, text, force=force) for name, text in demo_tables(seed).items()]
+
+
+def synthetic_viscosity_csv(formula: str, sigma: float, epsilon_over_k: float, temperatures, *,
+                            u_percent: float = 0.3, seed: int = 1, source: str = "synthetic") -> str:
+    """Text of a SYNTHETIC viscosity table (K, µPa·s, relative u in %) of the gas ``formula``:
+    Lennard-Jones Chapman–Enskog viscosity (order 3) of σ = ``sigma`` Å and ε/k =
+    ``epsilon_over_k`` K, with seeded Gaussian noise of ``u_percent``. For examples, tests and
+    benchmarks; the banner says the numbers are invented.
+
+    >>> text = synthetic_viscosity_csv("Ar", 3.35, 143.0, [300.0, 500.0], seed=2)
+    >>> text.splitlines()[0]
+    '# SYNTHETIC DATA made by fitkin.demo.synthetic_viscosity_csv (not a measurement).'
+    >>> text.splitlines()[2]
+    'T [K],viscosity [uPa s],u(viscosity) [%],source'
+    """
+    T = np.asarray(temperatures, dtype=float)
+    gas = Gas.from_formula(formula)
+    mu = TransportModel(order=3).viscosity(T, gas.molar_mass, sigma * 1e-10, epsilon_over_k)
+    mu = mu * (1 + np.random.default_rng(seed).normal(0.0, u_percent / 100, T.size))
+    lines = ["# SYNTHETIC DATA made by fitkin.demo.synthetic_viscosity_csv (not a measurement).",
+             f"# {formula}: Lennard-Jones sigma = {sigma} angstrom, epsilon/k = {epsilon_over_k} K, seed {seed}.",
+             "T [K],viscosity [uPa s],u(viscosity) [%],source"]
+    lines += [f"{t:.2f},{m * 1e6:.5f},{u_percent},{source}" for t, m in zip(T, mu)]
+    return "\n".join(lines) + "\n"
+
+
+#: The SYNTHETIC tables of the example batch manifest ``sample_data/batch_example.toml``:
+#: file → (formula, σ in Å, ε/k in K, temperatures in K, seed). The parameters are invented for
+#: the example (of the order of published noble-gas sets, but none of them).
+BATCH_EXAMPLE_GASES = {
+    "batch/argon_viscosity.csv": ("Ar", 3.36, 141.0, (150.0, 900.0, 12), 11),
+    "batch/xenon_viscosity.csv": ("Xe", 4.02, 236.0, (250.0, 900.0, 10), 12),
+}
+
+
+def batch_example_tables() -> dict[str, str]:
+    """Relative file name → text of the example batch's synthetic tables."""
+    return {name: synthetic_viscosity_csv(formula, sigma, eps, np.linspace(*T_range), seed=seed,
+                                          source="lab-synthetic")
+            for name, (formula, sigma, eps, T_range, seed) in BATCH_EXAMPLE_GASES.items()}

@@ -13,7 +13,8 @@ How a fenced block is treated, by its language tag:
   it must print (numbers agree to one unit of the last digit shown; a line ``...`` stands
   for any number of lines);
 * ``python`` — executed;
-* ``toml`` — read as a gas description file; ``csv`` — read as a measured table;
+* ``toml`` — read as a gas description file (as a batch manifest when it has ``[jobs...]``);
+  ``csv`` — read as a measured table;
 * ``text`` — shown only (outputs, messages, file layouts).
 
 Every fence carries a tag, and a block that looks like a command but cannot run here
@@ -29,6 +30,7 @@ import io
 import re
 import shlex
 import shutil
+import tomllib
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -37,6 +39,7 @@ import pandas as pd
 import pytest
 
 import fitkin
+from fitkin.batch.manifest import load_manifest
 from fitkin.cli import main as fitkin_main
 from fitkin.gas_file import read_gas_file
 from fitkin.inference.model import ForwardModel
@@ -254,7 +257,10 @@ def run_block(block: Block, folder: Path, namespace: dict) -> None:
     elif block.language == "toml":
         path = folder / f"doc-example-{block.line}.toml"
         path.write_text(block.text, encoding="utf-8")
-        read_gas_file(path)
+        if "jobs" in tomllib.loads(block.text):  # a batch manifest, else a gas description
+            load_manifest(path)
+        else:
+            read_gas_file(path)
     elif block.language == "csv":
         path = folder / f"doc-example-{block.line}.csv"
         path.write_text(block.text, encoding="utf-8")

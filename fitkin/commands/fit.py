@@ -18,7 +18,7 @@ from ..units import parse_quantity
 from ..workflow import FitOptions, run_fit_job
 from .tables import read_from_args
 
-__all__ = ["run_fit", "gas_from_args", "options_from_args"]
+__all__ = ["run_fit", "gas_from_args", "options_from_args", "fit_job_from_args"]
 
 
 def gas_from_args(args):
@@ -88,12 +88,19 @@ def options_from_args(args) -> FitOptions:
                       report_pressure=parse_quantity(args.report_pressure, "Pa", name="--report-pressure"))
 
 
-def run_fit(args, out) -> int:
+def fit_job_from_args(args) -> tuple[list, dict]:
+    """(tables, keyword arguments of :func:`~fitkin.workflow.run_fit_job`) of parsed ``fitkin fit``
+    arguments; ``fitkin batch`` runs each job through this too, so its options mean the same."""
     tables = read_from_args(args)
+    return tables, {"gas": gas_from_args(args), "potentials": args.potential, "options": options_from_args(args),
+                    "kinds": _kinds(args.property), "out_dir": args.out, "force": args.force}
+
+
+def run_fit(args, out) -> int:
+    tables, job_arguments = fit_job_from_args(args)
     for t in tables:
         for w in t.warnings:
             print(f"warning: {w}", file=out)
-    job = run_fit_job(tables, gas_from_args(args), potentials=args.potential, options=options_from_args(args),
-                      kinds=_kinds(args.property), out_dir=args.out, force=args.force)
+    job = run_fit_job(tables, **job_arguments)
     print(job.summary, file=out)
     return 0

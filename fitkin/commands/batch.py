@@ -1,0 +1,37 @@
+"""``fitkin batch``: check the options, run :func:`fitkin.batch.run_batch`, print its progress.
+
+Exit status: 0 when every job fitted (or was unchanged), 2 when any job failed on its input
+(the other jobs' results are written all the same), 3 when a job met a fault in fitkin.
+"""
+from __future__ import annotations
+
+from ..batch import runner
+from ..batch.manifest import load_manifest
+from ..batch.runner import format_duration
+from ..errors import UsageError
+from ..io.atomic import check_output_place
+
+__all__ = ["run_batch"]
+
+
+def _check(args) -> None:
+    check_output_place(args.out, folder=True, what="--out")
+    if args.jobs is not None and args.jobs < 1:
+        raise UsageError(f"--jobs must be a whole number ≥ 1 (1 runs the jobs one after another), got {args.jobs}")
+
+
+def run_batch(args, out) -> int:
+    _check(args)
+    manifest = load_manifest(args.manifest)
+    print(f"{len(manifest.jobs)} job{'s' if len(manifest.jobs) != 1 else ''} in {args.manifest}", file=out, flush=True)
+    result = runner.run_batch(manifest, args.out, jobs=args.jobs, force=args.force,
+                              progress=lambda line: print(line, file=out, flush=True))
+    c = result.counts
+    parts = [f"{c['ok']} fitted", f"{c['failed']} failed"] + ([f"{c['fault']} stopped by a fault in fitkin"]
+                                                             if c["fault"] else [])
+    parts += [f"{c['skipped']} unchanged"] if c["skipped"] else []
+    print(f"Batch done in {format_duration(result.seconds)}: {', '.join(parts)}.", file=out)
+    print(f"Summary: {result.paths['summary']} and {result.paths['index']}", file=out)
+    if c["fault"]:
+        return 3
+    return 2 if c["failed"] else 0
