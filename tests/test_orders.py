@@ -59,8 +59,8 @@ def test_order_beyond_six_is_refused_up_front(tmp_path, capsys, order3):
     assert not (tmp_path / "fit").exists()
 
 
-@pytest.mark.parametrize("extra, expected", [([], "add --order 1"), (["--order", "1", "--potential", "mie"],
-                                                                     "--potential lj only")])
+@pytest.mark.parametrize("extra, expected", [([], "needs --order 1"), (["--order", "1", "--potential", "mie"],
+                                                                     "use --potential lj")])
 def test_neufeld_messages_speak_command_line(tmp_path, capsys, order3, extra, expected):
     files, _ = order3
     code = main(["fit", files[0], "--formula", "Ar", "--collision", "neufeld", *extra, "--out", str(tmp_path / "f")])

@@ -198,7 +198,8 @@ def test_posterior_samples_are_used(record, tmp_path):
     rec = _with_posterior(record, tmp_path, converged=False,
                           diagnostics={"converged": False, "not_converged_because": ["chains too short"],
                                        "acceptance_fraction": 0.05},
-                          parameters={"sigma": {"p2_5": 3.63, "median": 3.70, "p97_5": 3.75}})
+                          parameters={"sigma": {"p2_5": 3.63, "median": 3.70, "p97_5": 3.75},
+                                      "epsilon_over_k": {"p2_5": 170.0, "median": 179.0, "p97_5": 188.0}})
     html, ctx = build_report(rec, record_path=tmp_path / "parameters.json")
     assert ctx.curves["viscosity"].source == "posterior"
     assert "posterior samples" in ctx.figures["sigma_epsilon"][1]
