@@ -66,6 +66,7 @@ def test_neufeld_messages_speak_command_line(tmp_path, capsys, order3, extra, ex
     code = main(["fit", files[0], "--formula", "Ar", "--collision", "neufeld", *extra, "--out", str(tmp_path / "f")])
     err = capsys.readouterr().err
     assert code == 2 and expected in err and "Traceback" not in err
+    assert "order=1" not in err and "LennardJones()" not in err  # the Python spelling is for Python callers
 
 
 def test_neufeld_at_first_order_runs(tmp_path, capsys, order3):

@@ -16,6 +16,7 @@ import math
 from dataclasses import dataclass
 
 import numpy as np
+from scipy.special import log_ndtr
 
 from ..errors import FitError
 
@@ -147,7 +148,6 @@ class Gaussian(Prior):
         return (self.lower, self.upper)
 
     def _log_mass(self) -> float:
-        from scipy.special import log_ndtr
         a = (self.lower - self.mean) / self.sd
         b = (self.upper - self.mean) / self.sd
         if not math.isfinite(a) and not math.isfinite(b):

@@ -15,13 +15,17 @@ import math
 import sys
 import time
 
+import emcee
 import numpy as np
 
 from ..errors import FitError, FitkinError
+from ..potentials import LennardJones
 from ..species import Gas
+from .corresponding_states import corresponding_states_priors
 from .diagnostics import (Diagnostics, acceptance_summary, assess_convergence, effective_sample_size,
                           integrated_time, split_rhat)
 from .fitdata import FitData
+from .leastsq import fit_least_squares, resolve_internal
 from .likelihood import LogLikelihood, calibration_name, source_offsets
 from .model import ForwardModel
 from .posterior import Posterior
@@ -67,7 +71,6 @@ def _build_priors(lik: LogLikelihood, start, priors, critical) -> PriorSet:
     bounds = start.extra.get("bounds", {})
     given = {}
     if critical is not None:
-        from .corresponding_states import corresponding_states_priors
         given.update(corresponding_states_priors(critical))
     for name, p in (priors or {}).items():
         given[name] = parse_prior(p) if isinstance(p, str) else p
@@ -282,10 +285,7 @@ def sample_posterior(data: FitData, gas: Gas, potential=None, *, free_shape=(), 
     Posterior. Raises FitError for priors excluding the least-squares solution, contradicting
     sources, or a sampler that cannot start.
     """
-    import emcee
-    from .leastsq import fit_least_squares
     if potential is None:
-        from ..potentials import LennardJones
         potential = LennardJones()
     if not (isinstance(max_steps, int) and max_steps >= 100):
         raise FitError(f"max_steps must be a whole number ≥ 100, got {max_steps!r}")
@@ -294,7 +294,6 @@ def sample_posterior(data: FitData, gas: Gas, potential=None, *, free_shape=(), 
                                   internal=internal, polar=polar)
     seed = int(np.random.SeedSequence().entropy % 2**32) if seed is None else int(seed)
     rng = np.random.default_rng(seed)
-    from .leastsq import resolve_internal
     model = ForwardModel(gas=gas, potential=potential, free_shape=tuple(free_shape), order=order, collision=collision,
                          internal=resolve_internal(internal, gas, data),
                          polar=gas.is_polar if polar is None else bool(polar))

@@ -12,9 +12,12 @@ from functools import cached_property
 import numpy as np
 from scipy import constants
 
+from ..collision import collision_table
+from ..collision.correlations import NEUFELD_RANGE, neufeld_omega11, neufeld_omega22
 from ..errors import FitkinError, OutOfRangeError
-from ..potentials import potential_record
+from ..potentials import LennardJones, potential_record
 from . import chapman_enskog as ce
+from . import sonine
 from .sonine import MAX_ORDER
 
 __all__ = ["TransportModel", "COLLISION_SOURCES"]
@@ -44,7 +47,6 @@ class TransportModel:
             raise FitkinError(f"unknown collision-integral source '{self.collision}'; "
                               f"expected one of {', '.join(COLLISION_SOURCES)}")
         if self.potential is None:
-            from ..potentials import LennardJones
             object.__setattr__(self, "potential", LennardJones())
         if isinstance(self.order, bool) or not isinstance(self.order, int) or not 1 <= self.order <= MAX_ORDER:
             raise FitkinError(f"Sonine order must be a whole number from 1 to {MAX_ORDER} (the orders whose "
@@ -62,14 +64,12 @@ class TransportModel:
     # -- collision integrals -------------------------------------------------------------
     @cached_property
     def _table(self):
-        from ..collision import collision_table
         return collision_table(self.potential)
 
     def omega(self, l: int, s: int, T_star):
         """Ω(l,s)*(T*) from the chosen source; raises OutOfRangeError outside its range."""
         t = np.asarray(T_star, dtype=float)
         if self.collision == "neufeld":
-            from ..collision.correlations import NEUFELD_RANGE, neufeld_omega11, neufeld_omega22
             lo, hi = NEUFELD_RANGE
             if np.any(t < lo) or np.any(t > hi):
                 raise OutOfRangeError(f"reduced temperature {t.min():.3g}..{t.max():.3g} outside the "
@@ -84,7 +84,6 @@ class TransportModel:
     @property
     def t_star_range(self) -> tuple[float, float]:
         if self.collision == "neufeld":
-            from ..collision.correlations import NEUFELD_RANGE
             return NEUFELD_RANGE
         return tuple(self._table.t_star_range)
 
@@ -97,7 +96,6 @@ class TransportModel:
     def _correction(self, which: str, T_star):
         if self.order == 1:
             return 1.0
-        from . import sonine
         fn = {"viscosity": sonine.viscosity_correction,
               "conductivity": sonine.conductivity_correction,
               "self_diffusion": sonine.self_diffusion_correction}[which]
