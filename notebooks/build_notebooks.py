@@ -612,9 +612,105 @@ flow (slip and the Knudsen regime).
     _md(CAUTION),
 ]
 
+# --------------------------------------------------------------------------------------------
+# 03: planning the next measurements
+# --------------------------------------------------------------------------------------------
+PLAN_CELLS = [
+    _md(r"""
+# Planning the next measurements
+
+**The scenario (fictional).** A lab has measured the viscosity of an argon-like gas at eight
+temperatures from 250 K to 400 K with a relative standard uncertainty of 0.3 %. A combustion
+model needs μ at 1000 K, where the fit extrapolates. The viscometer reaches 200–1000 K, and
+there is time for four more points. Where should they go, and how much will they help?
+
+> **SYNTHETIC DATA.** The "measurements" are generated here from Lennard-Jones σ = 3.35 Å,
+> ε/k = 143 K (invented for this example) with 0.3 % Gaussian noise and fixed seeds; the four
+> new "measurements" too. No number below describes real argon.
+"""),
+    _code(r"""
+import tempfile
+from pathlib import Path
+
+import numpy as np
+
+import fitkin
+from fitkin.plan import plan_measurements
+from fitkin.plan.output import write_plan
+from fitkin.theory.transport import TransportModel
+
+work = Path(tempfile.mkdtemp(prefix="fitkin-example-03-"))
+gas = fitkin.Gas.from_formula("Ar", name="argon-like (synthetic)")
+truth = TransportModel(order=3)
+
+
+def synthetic_viscosity(T, seed):
+    mu = truth.viscosity(np.asarray(T, float), gas.molar_mass, 3.35e-10, 143.0)
+    return mu * (1.0 + np.random.default_rng(seed).normal(0.0, 0.003, np.size(T)))
+
+
+def fit_and_save(paths, folder):
+    tables = fitkin.read_tables(paths)
+    result = fitkin.fit_least_squares(fitkin.FitData.from_tables(tables), gas)
+    return fitkin.save_fit(result, folder, tables=tables, report=False)["parameters"]
+
+
+T_old = np.linspace(250.0, 400.0, 8)
+old = work / "viscosity_250_400.csv"
+old.write_text("# SYNTHETIC DATA (sigma = 3.35 angstrom, epsilon/k = 143 K, seed 5)\n"
+               "T [K],viscosity [uPa s],u(viscosity) [%]\n"
+               + "".join(f"{t:.1f},{m * 1e6:.5f},0.3\n" for t, m in zip(T_old, synthetic_viscosity(T_old, 5))))
+first_fit = fit_and_save([old], work / "fit-1")
+print(first_fit)
+"""),
+    _md(r"""
+## 1. The plan
+
+The goal is the smallest expected uncertainty of μ(1000 K). `plan_measurements` averages the
+criterion over parameter draws from the fit's covariance and compares the recommended points
+with four points spaced uniformly over 200–1000 K (`fitkin plan fit-1/parameters.json --range
+200:1000:5 --points 4 --uncertainty 0.3% --goal viscosity@1000K --out plan` does the same).
+"""),
+    _code(r"""
+plan = plan_measurements(first_fit, grid="200:1000:5", points=4, uncertainty="0.3%",
+                         goals=["viscosity@1000K"], seed=1)
+print(plan.table())
+paths = write_plan(plan, work / "plan")
+print(paths["csv"].read_text())
+"""),
+    _md(r"""
+## 2. The new measurements and the refit
+
+`plan.csv` is a fitkin table with the viscosity column blank. The lab measures and types the
+values in; here synthetic values stand in for them. Then both tables are fitted together and
+the realised uncertainty of μ(1000 K) is set beside what the plan expected.
+"""),
+    _code(r"""
+lines = paths["csv"].read_text().splitlines()
+T_new = np.array([float(line.split(",")[0]) for line in lines[2:]])
+mu_new = synthetic_viscosity(T_new, 11)
+filled = lines[:2] + [f"{t:g},{m * 1e6:.5f},0.3" for t, m in zip(T_new, mu_new)]
+new = work / "viscosity_planned.csv"
+new.write_text("\n".join(filled) + "\n")
+
+second_fit = fitkin.load_parameters(fit_and_save([old, new], work / "fit-2"))
+first = fitkin.load_parameters(first_fit)
+for label, fitted in (("before", first), ("after", second_fit)):
+    median, low, high = fitted.viscosity(1000.0, band=0.6827)
+    print(f"{label}: μ(1000 K) = {median[0] * 1e6:.3f} µPa s, u ≈ {50 * (high[0] - low[0]) / median[0]:.3f} %")
+goal = plan.row("viscosity@1000K")
+print(f"the plan expected {100 * goal.before:.3f} % before and {100 * goal.plan:.3f} % after "
+      f"(uniform spacing: {100 * goal.uniform:.3f} %)")
+print(f"true value (the synthetic truth): {truth.viscosity(1000.0, gas.molar_mass, 3.35e-10, 143.0) * 1e6:.3f} µPa s")
+"""),
+    _md(CAUTION),
+]
+
+
 NOTEBOOKS = {
     "01_fit_a_monatomic_gas.ipynb": FIT_CELLS,
     "02_reuse_parameters_downstream.ipynb": REUSE_CELLS,
+    "03_plan_measurements.ipynb": PLAN_CELLS,
 }
 
 

@@ -218,3 +218,36 @@ def test_plan_html_is_one_self_contained_page(saved_fit, tmp_path):
     assert main(["plan", str(saved_fit), "--range", "200:1000:10", "--points", "3", "--uncertainty", "0.3%",
                  "--draws", "10", "--out", str(tmp_path / "bare"), "--no-html"]) == 0
     assert not (tmp_path / "bare" / "plan.html").exists() and (tmp_path / "bare" / "plan.csv").exists()
+
+
+def test_cli_plan_adds_to_existing_tables_with_units_given(saved_fit, tmp_path):
+    gas = Gas.from_formula("Ar")
+    T = np.array([600.0, 700.0, 800.0])
+    mu = TransportModel(order=3).viscosity(T, gas.molar_mass, TRUE["sigma"] * ANGSTROM, TRUE["epsilon_over_k"])
+    extra = tmp_path / "new_points.csv"       # headers without units: --unit supplies them
+    extra.write_text("T,viscosity,u(viscosity) [%]\n" + "".join(f"{t},{m * 1e6:.5f},0.3\n" for t, m in zip(T, mu)))
+    common = ["plan", str(saved_fit), "--range", "200:1000:10", "--points", "2", "--uncertainty", "0.3%",
+              "--goal", "viscosity@1000K", "--draws", "20", "--no-html"]
+    assert main(common + ["--out", str(tmp_path / "alone")]) == 0
+    assert main(common + ["--out", str(tmp_path / "more"), "--data", str(extra), "--unit", "T=K",
+                          "--unit", "viscosity=uPa s"]) == 0
+    alone, more = (json.loads((tmp_path / d / "plan.json").read_text()) for d in ("alone", "more"))
+    assert more["inputs"]["existing_points"] == 3 and alone["inputs"]["existing_points"] == 0
+    u_alone, u_more = (next(r for r in rec["expected_uncertainties"] if r["goal"]) for rec in (alone, more))
+    assert u_more["u_now"] < 0.8 * u_alone["u_now"]     # three points at 600–800 K already pin μ(1000 K) more
+
+
+def test_cli_plan_from_a_prior_with_molar_mass_pressure_and_a_fixed_shape(tmp_path):
+    out = tmp_path / "kr"
+    assert main(["plan", "--molar-mass", "83.798 g/mol", "--monatomic", "--name", "krypton", "--potential", "mie:16",
+                 "--prior", "sigma=gaussian:3.6,0.2", "--prior", "epsilon_over_k=gaussian:180,40",
+                 "--property", "viscosity,self_diffusion", "--uncertainty", "viscosity=0.3%",
+                 "--uncertainty", "self_diffusion=1%", "--pressure", "1 bar", "--range", "200:800:20",
+                 "--points", "5", "--draws", "20", "--out", str(out), "--no-html"]) == 0
+    record = json.loads((out / "plan.json").read_text())
+    assert record["gas"] == "krypton" and record["potential"] == "mie:16"
+    assert record["inputs"]["pressure_Pa"] == pytest.approx(1e5)
+    lines = (out / "plan.csv").read_text().splitlines()
+    assert lines[1] == ("T [K],viscosity [uPa s],u(viscosity) [%],self_diffusion [cm^2/s],u(self_diffusion) [%],"
+                        "p [kPa]")
+    assert all(ln.endswith(",100") for ln in lines[2:])
