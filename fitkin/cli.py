@@ -54,6 +54,12 @@ _EPILOG_BATCH = """examples:
   fitkin batch gases.toml --out batch-run             (one worker process per core)
   fitkin batch gases.toml --out batch-run --jobs 1    (one job after another; a rerun skips finished jobs)
 """
+_EPILOG_LIBRARY = """examples:
+  fitkin library add fits.sqlite fit-argon fit-krypton --label "lab run 3"
+  fitkin library list fits.sqlite --gas argon
+  fitkin library show fits.sqlite argon --potential mie
+  fitkin library export fits.sqlite argon --out argon-again
+"""
 _EPILOG_DEMO = """examples:
   fitkin demo                       (writes ./fitkin-demo/)
   fitkin demo --out /tmp/demo --force
@@ -215,6 +221,7 @@ def build_parser() -> argparse.ArgumentParser:
 
     _add_plan_parser(sub)
     _add_batch_parser(sub)
+    _add_library_parser(sub)
 
     p = sub.add_parser("demo", help="make the synthetic sample data and fit it, end to end",
                        epilog=_EPILOG_DEMO, formatter_class=argparse.RawDescriptionHelpFormatter)
@@ -232,6 +239,39 @@ def _add_batch_parser(sub) -> None:
     p.add_argument("--force", action="store_true", help="redo every job, replacing earlier outputs in DIR")
     p.add_argument("--jobs", type=int, metavar="N", help="worker processes (default: the number of cores; "
                                                          "1 runs the jobs one after another in this process)")
+    p.add_argument("--library", metavar="DB", help="add every finished fit to this parameter library (SQLite; "
+                                                   "made if missing), labelled with its job's name")
+
+
+def _add_library_parser(sub) -> None:
+    p = sub.add_parser("library", help="keep saved fits in one SQLite file: add, list, show, export",
+                       epilog=_EPILOG_LIBRARY, formatter_class=argparse.RawDescriptionHelpFormatter)
+    actions = p.add_subparsers(dest="library_command", metavar="ACTION", required=True)
+    a = actions.add_parser("add", help="store fit folders (parameters*.json and the files beside them)")
+    a.add_argument("db", metavar="DB", help="the library file (made if missing)")
+    a.add_argument("fits", nargs="+", metavar="FIT_DIR", help="folders fitkin fit wrote, or parameter files")
+    a.add_argument("--label", default="", help="a label that tells these fits apart from other fits of the gas")
+
+    def choose(q):
+        q.add_argument("--potential", help="the fit of this potential (lj, mie, exp6, hs, tabulated)")
+        q.add_argument("--label", help="the fit added with this label")
+        q.add_argument("--date", help="a fit made on this date or in this month (2026-12-03, 2026-12)")
+        q.add_argument("--id", type=int, dest="fit_id", metavar="N", help="the fit with this id (see list)")
+    q = actions.add_parser("list", help="the stored fits, one line each")
+    q.add_argument("db", metavar="DB")
+    q.add_argument("--gas", metavar="NAME", help="only fits of this gas")
+    q.add_argument("--potential", help="only fits of this potential")
+    q.add_argument("--label", help="only fits with this label")
+    q = actions.add_parser("show", help="one stored fit: its parameters and what else is stored of the gas")
+    q.add_argument("db", metavar="DB")
+    q.add_argument("name", metavar="NAME", help="the gas's name (as list shows it)")
+    choose(q)
+    q = actions.add_parser("export", help="write a stored fit's parameter file (and samples) back, byte for byte")
+    q.add_argument("db", metavar="DB")
+    q.add_argument("name", metavar="NAME")
+    q.add_argument("--out", required=True, metavar="DIR", help="folder to write into")
+    q.add_argument("--force", action="store_true", help="replace files of the same name in DIR")
+    choose(q)
 
 
 def subcommand_parser(name: str) -> argparse.ArgumentParser:

@@ -5,11 +5,14 @@ Exit status: 0 when every job fitted (or was unchanged), 2 when any job failed o
 """
 from __future__ import annotations
 
+from pathlib import Path
+
 from ..batch import runner
 from ..batch.manifest import load_manifest
 from ..batch.runner import format_duration
-from ..errors import UsageError
+from ..errors import FitkinError, UsageError
 from ..io.atomic import check_output_place
+from ..library import open_library
 
 __all__ = ["run_batch"]
 
@@ -23,15 +26,34 @@ def _check(args) -> None:
 def run_batch(args, out) -> int:
     _check(args)
     manifest = load_manifest(args.manifest)
+    library = open_library(args.library, create=True) if args.library else None  # refused before any work
     print(f"{len(manifest.jobs)} job{'s' if len(manifest.jobs) != 1 else ''} in {args.manifest}", file=out, flush=True)
-    result = runner.run_batch(manifest, args.out, jobs=args.jobs, force=args.force,
-                              progress=lambda line: print(line, file=out, flush=True))
+
+    def store(outcome):
+        if library is None or outcome.status != "ok":
+            return
+        try:
+            library.add(Path(args.out) / outcome.name, label=outcome.name)
+        except FitkinError as exc:  # the fit is saved in its folder; the library can be filled later
+            print(f"warning: {outcome.name} was not added to {args.library}: {exc}", file=out, flush=True)
+
+    try:
+        result = runner.run_batch(manifest, args.out, jobs=args.jobs, force=args.force, on_outcome=store,
+                                  progress=lambda line: print(line, file=out, flush=True))
+        for outcome in result.outcomes:  # unchanged jobs too (adding a stored fit again changes nothing)
+            if outcome.name in result.skipped:
+                store(outcome)
+    finally:
+        if library is not None:
+            library.close()
     c = result.counts
     parts = [f"{c['ok']} fitted", f"{c['failed']} failed"] + ([f"{c['fault']} stopped by a fault in fitkin"]
                                                              if c["fault"] else [])
     parts += [f"{c['skipped']} unchanged"] if c["skipped"] else []
     print(f"Batch done in {format_duration(result.seconds)}: {', '.join(parts)}.", file=out)
     print(f"Summary: {result.paths['summary']} and {result.paths['index']}", file=out)
+    if library is not None:
+        print(f"Library: the fitted jobs are in {args.library} (labelled with their job names)", file=out)
     if c["fault"]:
         return 3
     return 2 if c["failed"] else 0
