@@ -61,6 +61,21 @@ def test_viscosity_only_fit_of_a_polyatomic_gas_keeps_its_standard_errors(tmp_pa
     assert load_parameters(tmp_path / "fit" / "parameters.json").has_conductivity_model
 
 
+@pytest.mark.parametrize("extra", [["--fit-internal", "z_rot_inf"],
+                                   ["--conductivity-model", "mason_monchick", "--fit-internal", "all"]])
+def test_viscosity_only_fit_says_the_internal_parameters_asked_for_are_not_fitted(tmp_path, capsys, extra):
+    gas, visc, _ = write_co2(tmp_path)
+    code, out, err = run(capsys, "fit", visc, "--gas", gas, "--out", tmp_path / "fit", "--no-report", *extra)
+    assert code == 0, err
+    line = next(x for x in err.splitlines() if "asked to be fitted" in x)
+    assert line.startswith("fitkin: warning:") and "z_rot_inf" in line and "no thermal conductivity" in line
+    record = json.loads((tmp_path / "fit" / "parameters.json").read_text(encoding="utf-8"))
+    assert record["covariance"]["names"] == ["sigma", "epsilon_over_k"]
+    # without --fit-internal nothing was asked for, so nothing is said
+    code, _, err = run(capsys, "fit", visc, "--gas", gas, "--out", tmp_path / "plain", "--no-report")
+    assert code == 0 and "asked to be fitted" not in err
+
+
 def test_parameter_file_holds_the_fitted_internal_values_and_reloads_them(tmp_path, capsys):
     # Issue 9 §3: theory.internal_energy.values must hold what was fitted, not the defaults,
     # and --fit-internal works without repeating the model auto chose.

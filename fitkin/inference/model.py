@@ -12,12 +12,13 @@ potential by :func:`second_virial_coefficient` (it scales as σ³ at fixed ε/k)
 """
 from __future__ import annotations
 
+import warnings
 from dataclasses import dataclass, field
 
 import numpy as np
 from scipy import constants
 
-from ..errors import FitError, GasError, OutOfRangeError
+from ..errors import FitError, FitkinWarning, GasError, OutOfRangeError
 from ..species import Gas
 from ..thermo import MonatomicHeatCapacity
 from ..theory.internal import InternalEnergyTransport, transport_with_internal_energy
@@ -140,7 +141,9 @@ def resolve_internal_model(internal, gas: Gas, data: FitData) -> InternalEnergyT
     ``internal`` is "auto", an :class:`AutomaticInternalModel`, a model name (its free set is
     what the conductivity points can determine), a model (its free set as given) or None.
     Without conductivity data no internal parameter is free (nothing in μ, D or B determines
-    one); the model is kept with its fixed values so that the fit can predict k.
+    one); the model is kept with its fixed values so that the fit can predict k. Parameters
+    asked for as free (a model with a free set, ``--fit-internal``) are then held at their
+    values with a :class:`~fitkin.errors.FitkinWarning` saying so.
     """
     fits_k = "conductivity" in data.kinds
     T = data.temperature[data.mask("conductivity")] if fits_k else None
@@ -157,6 +160,9 @@ def resolve_internal_model(internal, gas: Gas, data: FitData) -> InternalEnergyT
     elif isinstance(internal, str):
         internal = _named_model(internal, gas, fits_k, T)
     if internal is not None and not fits_k and internal.parameter_names:
+        warnings.warn(f"the internal-energy parameters asked to be fitted ({', '.join(internal.parameter_names)}) "
+                      "are held at their defaults: the data hold no thermal conductivity, and nothing in "
+                      "viscosity, self-diffusion or B(T) determines them", FitkinWarning, stacklevel=2)
         internal = internal.with_free(())
     return internal
 
