@@ -101,7 +101,8 @@ def _add_plan_parser(sub) -> None:
     p.add_argument("--points", type=int, metavar="N", help="number of new measurements to plan")
     p.add_argument("--uncertainty", action="append", default=[], metavar="U",
                    help="standard uncertainty of a new measurement: 0.3%% (relative), '0.05 uPa s' (absolute), "
-                        "or per property, e.g. conductivity=1%%")
+                        "or per property, e.g. conductivity=1%%; or a u(T) table FILE (columns 'T [K]', "
+                        "'u(viscosity) [%%]')")
     p.add_argument("--goal", action="append", metavar="GOAL",
                    help="parameters (default: D-optimal), PROPERTY@T such as viscosity@1500K (several allowed), "
                         "or discriminate:lj,mie")

@@ -251,3 +251,26 @@ def test_cli_plan_from_a_prior_with_molar_mass_pressure_and_a_fixed_shape(tmp_pa
     assert lines[1] == ("T [K],viscosity [uPa s],u(viscosity) [%],self_diffusion [cm^2/s],u(self_diffusion) [%],"
                         "p [kPa]")
     assert all(ln.endswith(",100") for ln in lines[2:])
+
+
+def test_cli_plan_with_a_table_of_u_of_t(saved_fit, tmp_path, capsys):
+    table = tmp_path / "u_visc.csv"
+    table.write_text("T [K],u(viscosity) [%]\n200,0.6\n1000,0.2\n")
+    out = tmp_path / "plan"
+    assert main(["plan", str(saved_fit), "--range", "200:1000:10", "--points", "4", "--uncertainty", str(table),
+                 "--draws", "20", "--out", str(out), "--no-html"]) == 0
+    rows = [ln.split(",") for ln in (out / "plan.csv").read_text().splitlines()[2:]]
+    for T, _, u in rows:   # linear between the table's two rows
+        assert float(u) == pytest.approx(0.6 + (0.2 - 0.6) * (float(T) - 200) / 800, rel=1e-5)
+    # the instrument is best at the top of the range: the plan leans there
+    assert np.mean([float(T) for T, _, _ in rows]) > 600
+    absolute = tmp_path / "u_abs.csv"
+    absolute.write_text("T [degC],u(viscosity) [uPa s]\n-100,0.05\n800,0.05\n")
+    assert main(["plan", str(saved_fit), "--range", "200:1000:10", "--points", "2", "--uncertainty", str(absolute),
+                 "--draws", "10"]) == 0
+    short = tmp_path / "u_short.csv"
+    short.write_text("T [K],u(viscosity) [%]\n300,0.3\n600,0.3\n")
+    capsys.readouterr()
+    assert main(["plan", str(saved_fit), "--range", "200:1000:10", "--points", "2", "--uncertainty", str(short),
+                 "--draws", "10"]) == 2
+    assert "table covers 300–600 K" in capsys.readouterr().err

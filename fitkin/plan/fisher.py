@@ -98,15 +98,17 @@ def fisher_information(values, J, uncertainty) -> np.ndarray:
     return np.einsum("dnp,dnq->dpq", a, a)
 
 
-def relative_or_absolute(kinds, by_kind: dict):
-    """The uncertainty callable of points of ``kinds`` from {kind: Uncertainty}."""
+def relative_or_absolute(kinds, by_kind: dict, temperatures):
+    """The uncertainty callable ``u(values (D, n)) → (D, n)`` of the points (kinds[i],
+    temperatures[i]) from {kind: :class:`~fitkin.plan.specs.Uncertainty`}."""
     kinds = np.asarray(kinds, dtype=object)
+    T = np.asarray(temperatures, dtype=float)
 
     def u(values):
         out = np.empty_like(values)
         for k in set(kinds):
             m = kinds == k
-            out[:, m] = by_kind[k].of(values[:, m])
+            out[:, m] = by_kind[k].of(values[:, m], T[m][None, :])
         return out
     return u
 

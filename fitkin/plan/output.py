@@ -9,6 +9,8 @@ from __future__ import annotations
 import json
 from pathlib import Path
 
+import numpy as np
+
 from ..io.atomic import check_can_write, write_text_atomic
 from ..measurements import PRESSURE_KINDS
 from .html import plan_html_text
@@ -22,13 +24,18 @@ CSV_UNITS = {"viscosity": ("uPa s", 1e6), "conductivity": ("mW/(m K)", 1e3), "se
              "second_virial": ("cm^3/mol", 1e6)}
 
 
-def _u_cell(result: PlanResult, kind: str) -> tuple[str, str]:
-    """(header, cell) of the u(kind) column: per cent for a relative uncertainty."""
-    text = result.inputs["uncertainty"][kind]
-    unit, factor = CSV_UNITS[kind]
-    if text.endswith("%"):
-        return f"u({kind}) [%]", text[:-1].strip()
-    return f"u({kind}) [{unit}]", f"{float(result.inputs['uncertainty_SI'][kind]) * factor:.6g}"
+def _u_header(result: PlanResult, kind: str) -> str:
+    """The u(kind) column header: per cent for a relative uncertainty, else the column's unit."""
+    return f"u({kind}) [%]" if result.uncertainty[kind].is_relative else f"u({kind}) [{CSV_UNITS[kind][0]}]"
+
+
+def _u_cell(result: PlanResult, kind: str, T: float) -> str:
+    """The planned u at T: per cent of the value, or in the column's unit."""
+    u = result.uncertainty[kind]
+    if u.is_relative:
+        return f"{100 * float(u.of(1.0, T)):.6g}"
+    predicted = float(np.interp(T, result.curves[kind]["T"], result.curves[kind]["value"]))
+    return f"{float(u.of(predicted, T)) * CSV_UNITS[kind][1]:.6g}"
 
 
 def plan_csv_text(result: PlanResult) -> str:
@@ -37,11 +44,8 @@ def plan_csv_text(result: PlanResult) -> str:
     ``fitkin fit plan.csv ...`` reads it like any measured table."""
     kinds = list(result.inputs["properties"])
     header = ["T [K]"]
-    u_cells = {}
     for kind in kinds:
-        unit, _ = CSV_UNITS[kind]
-        u_head, u_cells[kind] = _u_cell(result, kind)
-        header += [f"{kind} [{unit}]", u_head]
+        header += [f"{kind} [{CSV_UNITS[kind][0]}]", _u_header(result, kind)]
     pressure = any(k in PRESSURE_KINDS for k in kinds)
     if pressure:
         header.append("p [kPa]")
@@ -51,7 +55,7 @@ def plan_csv_text(result: PlanResult) -> str:
     for kind, T in result.points:
         row = [f"{T:.6g}"]
         for k in kinds:
-            row += ["", u_cells[k]] if k == kind else ["", ""]
+            row += ["", _u_cell(result, k, T)] if k == kind else ["", ""]
         if pressure:
             row.append(f"{result.inputs['pressure_Pa'] / 1e3:.6g}")
         lines.append(",".join(row))

@@ -182,6 +182,8 @@ def plan_measurements(known, *, grid, points: int, properties=("viscosity",), un
     quantity_goals = [g for g in goal_list if g.form == "quantity"]
     all_T = np.concatenate([grid.temperatures, [g.temperature for g in quantity_goals]])
     _check_coverage(k, kinds + tuple(g.kind for g in quantity_goals), all_T)
+    for u in u_by_kind.values():
+        u.check_covers(grid.temperatures)
     m = len(grid.temperatures)
     cand_kinds = np.repeat(np.array(kinds, dtype=object), m)
     cand_T = np.tile(grid.temperatures, len(kinds))
@@ -203,7 +205,7 @@ def plan_measurements(known, *, grid, points: int, properties=("viscosity",), un
     s = k.sd
     Js = J * s[None, None, :]
     nc, nu = len(cand_T), len(uniform)
-    u_fun = relative_or_absolute(pts.kind, u_by_kind)
+    u_fun = relative_or_absolute(pts.kind, u_by_kind, pts.temperature)
     a_all = information_vectors(values, Js, u_fun)
     a_cand, a_uni = a_all[:, :nc], a_all[:, nc:nc + nu]
     goal_values, goal_J = values[:, nc + nu:], Js[:, nc + nu:]
@@ -216,8 +218,8 @@ def plan_measurements(known, *, grid, points: int, properties=("viscosity",), un
         criterion = GoalVariance(goal_c)
     else:
         rivals = rivals_for(k, goal_list[0], pressure)
-        criterion = discrimination_at(k, rivals, cand_kinds, cand_T, relative_or_absolute(cand_kinds, u_by_kind),
-                                      pressure)
+        criterion = discrimination_at(k, rivals, cand_kinds, cand_T,
+                                      relative_or_absolute(cand_kinds, u_by_kind, cand_T), pressure)
     chosen, value = select_design(criterion, prior, a_cand, points)
     plan_points = tuple((str(cand_kinds[i]), float(cand_T[i])) for i in chosen)
     precisions = {"now": prior, "plan": design_precision(prior, a_cand, chosen),
@@ -227,7 +229,7 @@ def plan_measurements(known, *, grid, points: int, properties=("viscosity",), un
     else:
         uni_kinds = [kd for kd, _ in uniform]
         uni = discrimination_at(k, rivals, uni_kinds, [t for _, t in uniform],
-                                relative_or_absolute(uni_kinds, u_by_kind), pressure)
+                                relative_or_absolute(uni_kinds, u_by_kind, [t for _, t in uniform]), pressure)
         scores = {"plan": value, "uniform": uni.design_value(np.arange(nu)), "now": 0.0}
         if -value < 1e-6:
             warnings.append(f"no temperature in {grid.low:g}–{grid.high:g} K tells the shapes apart: "
@@ -239,12 +241,12 @@ def plan_measurements(known, *, grid, points: int, properties=("viscosity",), un
     rows = _rows(k, s, goal_values, goal_c, quantity_goals, precisions)
     inputs = {"range": grid.text, "range_K": [grid.low, grid.high], "candidates": int(m), "points": int(points),
               "properties": list(kinds), "uncertainty": {kd: u.describe() for kd, u in u_by_kind.items()},
-              "uncertainty_SI": {kd: u.absolute for kd, u in u_by_kind.items()},
+
               "pressure_Pa": float(pressure), "draws_used": int(len(k.draws)), "seed": int(k.seed),
               "existing_points": int(len(data)) if data is not None else 0}
     return PlanResult(points=plan_points, uniform=uniform, rows=rows, criterion=criterion.name,
                       goals=tuple(g.label for g in goal_list), values=scores,
                       curves=_curves(kinds, grid, values[:, :nc], a_cand,
-                                                    relative_or_absolute(cand_kinds, u_by_kind), precisions), knowledge=k,
+                                                    relative_or_absolute(cand_kinds, u_by_kind, cand_T), precisions), knowledge=k,
                       inputs=inputs, warnings=tuple(warnings), uncertainty=u_by_kind)
 

@@ -4,17 +4,19 @@ uncertainty and goals.
 ``--range 250:1100:5`` (kelvin) or ``--range "-20:800:5 degC"`` (any temperature unit;
 the step is a temperature difference in that unit); ``--uncertainty 0.3%`` (relative) or
 ``--uncertainty "0.05 uPa s"`` (absolute, in any unit of the property), optionally prefixed
-with the property (``conductivity=1%``); ``--goal parameters``, ``--goal viscosity@1500K``
+with the property (``conductivity=1%``), or the path of a u(T) table; ``--goal parameters``, ``--goal viscosity@1500K``
 (also ``@1500 K``, ``@1227 degC``) or ``--goal discriminate:lj,mie``.
 """
 from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from pathlib import Path
 
 import numpy as np
 
 from ..errors import UnitError, UsageError
+from ..io.uncertainty_table import UncertaintyTable, read_uncertainty_table
 from ..measurements import PROPERTY_KINDS, SI_UNITS, SIGNED_KINDS
 from ..units import parse_quantity, parse_unit, to_si
 
@@ -98,33 +100,66 @@ def parse_range(text: str) -> CandidateGrid:
 @dataclass(frozen=True)
 class Uncertainty:
     """The standard uncertainty of one future measurement of ``kind``: ``relative`` (fraction
-    of the value) or ``absolute`` (SI)."""
+    of the value), ``absolute`` (SI), or a ``table`` of u(T) interpolated linearly in T
+    (:class:`~fitkin.io.uncertainty_table.UncertaintyTable`)."""
 
     kind: str
     relative: float | None = None
     absolute: float | None = None
+    table: UncertaintyTable | None = None
 
-    def of(self, values) -> np.ndarray:
-        """u in SI for predicted values (any shape)."""
+    def of(self, values, temperatures=None) -> np.ndarray:
+        """u in SI for predicted values (any shape) at ``temperatures`` (K, broadcast to them;
+        needed only with a table)."""
         values = np.asarray(values, dtype=float)
+        if self.table is not None:
+            if temperatures is None:
+                raise UsageError("a u(T) table needs the temperatures of the points")
+            u = np.broadcast_to(np.interp(np.asarray(temperatures, float), self.table.temperature, self.table.u),
+                                values.shape)
+            return u * np.abs(values) if self.table.relative else np.array(u, dtype=float)
         if self.relative is not None:
             return self.relative * np.abs(values)
         return np.full(values.shape, float(self.absolute))
 
+    def check_covers(self, temperatures) -> None:
+        """UsageError when a u(T) table does not reach every planned temperature."""
+        if self.table is None:
+            return
+        lo, hi = float(self.table.temperature[0]), float(self.table.temperature[-1])
+        T = np.asarray(temperatures, dtype=float)
+        if T.min() < lo * (1 - 1e-12) or T.max() > hi * (1 + 1e-12):
+            raise UsageError(f"{self.table.file}: the u({self.kind}) table covers {lo:g}–{hi:g} K, but the planned "
+                             f"temperatures span {T.min():g}–{T.max():g} K; extend the table or narrow --range")
+
+    @property
+    def is_relative(self) -> bool:
+        return self.relative is not None or (self.table is not None and self.table.relative)
+
     def describe(self) -> str:
+        if self.table is not None:
+            lo, hi = self.table.temperature[0], self.table.temperature[-1]
+            return f"u(T) table {self.table.file} ({lo:g}–{hi:g} K, {'relative' if self.table.relative else 'absolute'})"
         if self.relative is not None:
             return f"{100 * self.relative:.4g} %"
         return f"{self.absolute:.4g} {SI_UNITS[self.kind]}"
 
 
+_TABLE_SUFFIXES = (".csv", ".tsv", ".txt", ".xlsx")
+
+
 def parse_uncertainty(text: str, kinds) -> dict:
-    """{kind: Uncertainty} from '0.3%' (every kind), 'viscosity=0.3%' or 'conductivity=0.2 mW/(m K)'.
+    """{kind: Uncertainty} from '0.3%' (every kind), 'viscosity=0.3%', 'conductivity=0.2 mW/(m K)'
+    or the path of a u(T) table (:mod:`fitkin.io.uncertainty_table`).
 
     >>> parse_uncertainty("0.3%", ["viscosity"])["viscosity"].relative
     0.003
     """
     kinds = tuple(kinds)
     spec = str(text).strip()
+    if spec.lower().endswith(_TABLE_SUFFIXES) or Path(spec).is_file():
+        tables = read_uncertainty_table(spec)
+        return {t.kind: Uncertainty(t.kind, table=t) for t in tables}
     targets = kinds
     if "=" in spec:
         name, spec = (s.strip() for s in spec.split("=", 1))

@@ -89,11 +89,12 @@ def verify_plan(result: PlanResult, *, replications: int, seed: int = 0) -> Plan
     for design in ("plan", "uniform"):
         design_points = result.points if design == "plan" else result.uniform
         kinds = [kd for kd, _ in design_points]
+        temps = [t for _, t in design_points]
         pred = Predictor(k.model, k.names, k.fixed, points(kinds, [t for _, t in design_points], pressure),
                          scale=k.sd)
         clean = pred.values(truths)
         for r, truth in enumerate(truths):
-            u = np.array([u_by_kind[kd].of(v) for kd, v in zip(kinds, clean[r])])
+            u = np.array([float(u_by_kind[kd].of(v, t)) for kd, v, t in zip(kinds, clean[r], temps)])
             y = clean[r] + u * rng.normal(size=len(u))
             estimate, ok = _fit(pred, y, u, k.center, root, k.center)
             if not ok or not np.all(np.isfinite(estimate)):
