@@ -16,7 +16,7 @@ from matplotlib.figure import Figure
 from .. import __version__
 from ..report import style as st
 from ..report.figures import figure_bytes
-from .result import UNITS, PlanResult
+from .result import PROPERTY_UNITS, UNITS, PlanResult
 
 __all__ = ["plan_html_text", "plan_figure"]
 
@@ -75,7 +75,8 @@ def _rows_table(result: PlanResult) -> str:
     for r in result.rows:
         f = 100.0 if r.goal else 1.0
         unit = "%" if r.goal else UNITS.get(r.name, r.unit)
-        body.append(f"<tr><td>{escape(r.name)} [{escape(unit)}]</td><td>{r.value:.5g}</td>"
+        shown, factor = PROPERTY_UNITS.get(r.name.split("@")[0], ("", 1.0)) if r.goal else ("", 1.0)
+        body.append(f"<tr><td>{escape(r.name)} [{escape(unit)}]</td><td>{r.value * factor:.5g} {escape(shown)}</td>"
                     + "".join(f"<td>{f * x:.4g}</td>" for x in (r.before, r.plan, r.uniform))
                     + f"<td>{100 * r.gain:.0f} %</td></tr>")
     return f"<table>{head}{''.join(body)}</table>"

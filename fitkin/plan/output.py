@@ -14,14 +14,13 @@ import numpy as np
 from ..io.atomic import check_can_write, write_text_atomic
 from ..measurements import PRESSURE_KINDS
 from .html import plan_html_text
-from .result import PlanResult
+from .result import PROPERTY_UNITS, PlanResult
 
 __all__ = ["plan_csv_text", "plan_json_text", "write_plan", "PLAN_CSV", "PLAN_JSON", "PLAN_HTML", "CSV_UNITS"]
 
 PLAN_CSV, PLAN_JSON, PLAN_HTML = "plan.csv", "plan.json", "plan.html"
 #: Unit of each property column of plan.csv (header unit, factor from SI to it).
-CSV_UNITS = {"viscosity": ("uPa s", 1e6), "conductivity": ("mW/(m K)", 1e3), "self_diffusion": ("cm^2/s", 1e4),
-             "second_virial": ("cm^3/mol", 1e6)}
+CSV_UNITS = PROPERTY_UNITS
 
 
 def _u_header(result: PlanResult, kind: str) -> str:

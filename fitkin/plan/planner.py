@@ -13,7 +13,7 @@ from ..errors import OutOfRangeError, UsageError
 from ..fitted import FittedGas
 from ..inference.fitdata import FitData
 from ..inference.model import is_monatomic
-from ..measurements import PROPERTY_KINDS
+from ..measurements import PROPERTY_KINDS, SI_UNITS
 from .criteria import DOptimal, GoalVariance
 from .design import design_precision, select_design
 from .discriminate import discrimination_at, rivals_for
@@ -124,7 +124,7 @@ def _rows(k, s, goal_values, goal_c, goals, precisions) -> tuple:
     for g, goal in enumerate(goals):
         c = goal_c[:, g, :]
         rel = {name: float(np.sqrt(np.mean(np.einsum("dp,dpq,dq->d", c, C, c)))) for name, C in covs.items()}
-        rows.append(UncertaintyRow(goal.label, "1", float(np.mean(goal_values[:, g])), rel["now"], rel["plan"],
+        rows.append(UncertaintyRow(goal.label, SI_UNITS[goal.kind], float(np.mean(goal_values[:, g])), rel["now"], rel["plan"],
                                    rel["uniform"], goal=True))
     return tuple(rows)
 

@@ -10,9 +10,12 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-__all__ = ["PlanResult", "UncertaintyRow", "UNITS"]
+__all__ = ["PlanResult", "UncertaintyRow", "UNITS", "PROPERTY_UNITS"]
 
 UNITS = {"sigma": "Å", "epsilon_over_k": "K"}
+#: Unit each property is shown and tabulated in (unit text, factor from SI).
+PROPERTY_UNITS = {"viscosity": ("uPa s", 1e6), "conductivity": ("mW/(m K)", 1e3), "self_diffusion": ("cm^2/s", 1e4),
+                  "second_virial": ("cm^3/mol", 1e6)}
 
 
 @dataclass(frozen=True)
@@ -22,7 +25,7 @@ class UncertaintyRow:
 
     name: str
     unit: str
-    value: float
+    value: float  # report units for parameters, SI for goal quantities (``unit`` names it)
     before: float
     plan: float
     uniform: float
@@ -88,7 +91,10 @@ class PlanResult:
             counts[p] = counts.get(p, 0) + 1
         lines = ["  recommended measurements:", f"    {'property':<14s} {'T [K]':>9s}  {'points':>6s}"]
         lines += [f"    {k:<14s} {t:9.2f}  {n:6d}" for (k, t), n in counts.items()]
-        uni = ", ".join(f"{t:.1f}" for _, t in self.uniform)
+        by_kind: dict = {}
+        for kind, t in self.uniform:
+            by_kind.setdefault(kind, []).append(f"{t:.1f}")
+        uni = "; ".join((f"{kind} " if len(by_kind) > 1 else "") + ", ".join(ts) for kind, ts in by_kind.items())
         lines.append(f"  uniform design compared: {uni} K")
         return lines
 
@@ -103,17 +109,17 @@ class PlanResult:
                 f"  current uncertainty from: {k.source} ({inp['draws_used']} parameter draws, seed {inp['seed']})"]
         lines = head + self._point_lines()
         lines.append("  expected standard uncertainty:")
-        lines.append(f"    {'':<26s} {'value':>11s} {'now':>11s} {'after plan':>11s} {'uniform':>11s} {'gain':>6s}")
+        lines.append(f"    {'':<26s} {'value':>16s} {'now':>10s} {'after plan':>10s} {'uniform':>10s} {'gain':>6s}")
         for r in self.rows:
             if r.goal:
-                name = f"{r.name} [%]"
+                kind = r.name.split("@")[0]
+                unit, factor = PROPERTY_UNITS.get(kind, (r.unit, 1.0))
+                name, value = f"{r.name} [%]", f"{r.value * factor:.5g} {unit}"
                 vals = [100 * x for x in (r.before, r.plan, r.uniform)]
-                value = f"{r.value:.5g}"
             else:
-                name = f"{r.name} [{UNITS.get(r.name, r.unit)}]"
+                name, value = f"{r.name} [{UNITS.get(r.name, r.unit)}]", f"{r.value:.5g}"
                 vals = [r.before, r.plan, r.uniform]
-                value = f"{r.value:.5g}"
-            lines.append(f"    {name:<26s} {value:>11s} " + " ".join(f"{v:11.4g}" for v in vals)
+            lines.append(f"    {name:<26s} {value:>16s} " + " ".join(f"{v:10.4g}" for v in vals)
                          + f" {100 * r.gain:5.0f}%")
         if any(g.startswith("discriminate:") for g in self.goals):
             lines.append(f"  expected power to tell the shapes apart (χ² of the difference after the rival refits): "
