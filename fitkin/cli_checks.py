@@ -95,8 +95,18 @@ def _check_out(args, folder: bool) -> None:
         check_output_place(out, folder=folder, what="--out")
 
 
+def _check_tables(args) -> None:
+    """The options of every command that reads tables (check, fit)."""
+    _positive_quantity(args.pressure_limit, "Pa", "--pressure-limit", "1 MPa")
+    if args.table_pressure is not None:
+        _positive_quantity(args.table_pressure, "Pa", "--pressure", "101.325 kPa")
+
+
 def _check_fit(args) -> None:
     _check_out(args, folder=True)
+    _check_tables(args)
+    if args.formula is not None and not args.formula.strip():
+        raise UsageError("--formula is empty; give the gas's chemical formula, e.g. --formula Ar or --formula CO2")
     if args.molar_mass is not None:
         _molar_mass_unit_hint(args.molar_mass)
     if args.order < 1:
@@ -169,7 +179,7 @@ def _check_report(args) -> None:
 def check_arguments(args) -> None:
     """Raise :class:`UsageError` (or :class:`UnitError`) for an option value or combination that
     cannot work; fill in defaults that depend on other options."""
-    check = {"fit": _check_fit, "predict": _check_predict, "report": _check_report,
+    check = {"check": _check_tables, "fit": _check_fit, "predict": _check_predict, "report": _check_report,
              "demo": lambda a: _check_out(a, folder=True)}.get(args.command)
     if check is not None:
         check(args)

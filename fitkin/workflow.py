@@ -99,6 +99,15 @@ def parse_potential_choices(potentials) -> list[PotentialChoice]:
             items += [parse_potential_choice(t) for t in (x.strip() for x in str(p).split(",")) if t]
     if not items:
         raise FitkinError("--potential needs at least one name, e.g. lj or lj,mie")
+    seen = {}
+    for c in items:
+        key = _slug(c.label).lower()
+        if key in seen:
+            what = (f"'{c.label}' twice" if seen[key].lower() == c.label.lower() else
+                    f"'{seen[key]}' and '{c.label}', which would both be saved as parameters-{_slug(c.label)}.json")
+            raise FitkinError(f"--potential lists {what}: each shape is fitted once and saved to its own "
+                              "parameters-NAME.json, so give each once (or name tabulated files apart)")
+        seen[key] = c.label
     return items
 
 

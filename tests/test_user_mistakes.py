@@ -175,6 +175,30 @@ def test_bad_sampling_values(lab, tmp_path, capsys, extra, fragment):
                       *extra, fragments=[fragment])
 
 
+@pytest.mark.parametrize("extra, fragment", [
+    (["--pressure-limit", "-1 Pa"], "--pressure-limit must be above zero"),
+    (["--pressure-limit", "0 Pa"], "--pressure-limit must be above zero"),
+    (["--pressure", "-1 bar"], "--pressure must be above zero"),
+    (["--potential", "lj,lj"], "--potential lists 'lj' twice"),
+    (["--potential", "mie:14,lj,MIE:14"], "--potential lists 'MIE:14' twice"),
+])
+def test_table_and_potential_options(lab, tmp_path, capsys, extra, fragment):
+    expect_user_error(capsys, "fit", lab / "visc.csv", "--formula", "Ar", "--out", tmp_path / "o", *extra,
+                      fragments=[fragment])
+    assert not (tmp_path / "o").exists()
+
+
+def test_check_names_its_table_options(lab, capsys):
+    expect_user_error(capsys, "check", lab / "visc.csv", "--pressure-limit", "0 Pa",
+                      fragments=["--pressure-limit must be above zero"])
+
+
+def test_empty_formula_is_named(lab, tmp_path, capsys):
+    err = expect_user_error(capsys, "fit", lab / "visc.csv", "--formula", " ", "--out", tmp_path / "o",
+                            fragments=["--formula is empty"])
+    assert "--molar-mass" not in err
+
+
 def test_neufeld_message_speaks_command_line(lab, tmp_path, capsys):
     err = expect_user_error(capsys, "fit", lab / "visc.csv", "--formula", "Ar", "--out", tmp_path / "o",
                             "--collision", "neufeld", fragments=["--order 1"])
