@@ -1,11 +1,12 @@
 """fitkin plan: Fisher information, the design search, the command line and its refusals."""
 import json
+from pathlib import Path
 
 import numpy as np
 import pytest
 
 from fitkin.cli import main
-from fitkin.inference.model import ANGSTROM
+from fitkin.inference.model import ANGSTROM, ForwardModel
 from fitkin.io import read_tables
 from fitkin.plan import knowledge_from_fit, plan_measurements
 from fitkin.plan.criteria import DOptimal, GoalVariance
@@ -13,9 +14,12 @@ from fitkin.plan.design import select_design
 from fitkin.plan.fisher import Predictor, fisher_information, points
 from fitkin.plan.specs import parse_uncertainty
 from fitkin.plan.verify import verify_plan
+from fitkin.potentials import LennardJones
 from fitkin.species import Gas
+from fitkin.theory.internal import InternalEnergyTransport
 from fitkin.theory.transport import TransportModel
 
+ROOT = Path(__file__).resolve().parent.parent
 TRUE = {"sigma": 3.35, "epsilon_over_k": 143.0}  # argon-like, invented for the tests
 T_DATA = np.linspace(250.0, 400.0, 8)
 
@@ -274,3 +278,33 @@ def test_cli_plan_with_a_table_of_u_of_t(saved_fit, tmp_path, capsys):
     assert main(["plan", str(saved_fit), "--range", "200:1000:10", "--points", "2", "--uncertainty", str(short),
                  "--draws", "10"]) == 2
     assert "table covers 300–600 K" in capsys.readouterr().err
+
+
+def test_jacobian_of_internal_transport_parameters_matches_finite_differences(tmp_path):
+    # a polyatomic gas whose fit frees internal-energy conductivity parameters: they are
+    # parameters of the plan too
+    gas = Gas.from_file(ROOT / "sample_data" / "example_gas_co2.toml")
+    internal = InternalEnergyTransport("mason_monchick")
+    model = ForwardModel(gas, LennardJones(), internal=internal)
+    theta = {"sigma": 3.76, "epsilon_over_k": 245.0, **internal.defaults}
+    T = np.linspace(260.0, 700.0, 8)
+    files = []
+    for kind, unit, scale, seed in (("viscosity", "uPa s", 1e6, 5), ("conductivity", "mW/(m K)", 1e3, 6)):
+        y = model.property(kind, theta, T) * (1 + 0.003 * np.random.default_rng(seed).normal(size=T.size))
+        files.append(tmp_path / f"{kind}.csv")
+        files[-1].write_text(f"T [K],{kind} [{unit}],u({kind}) [%]\n"
+                             + "".join(f"{t:.2f},{v * scale:.6f},0.3\n" for t, v in zip(T, y)))
+    assert main(["fit", *map(str, files), "--gas", str(ROOT / "sample_data" / "example_gas_co2.toml"),
+                 "--out", str(tmp_path / "fit"), "--no-report"]) == 0
+    k = knowledge_from_fit(tmp_path / "fit" / "parameters.json", draws=3, seed=2)
+    assert len(k.names) > 2 and set(k.names[2:]) <= set(k.model.internal_names)
+    Tp = np.array([300.0, 600.0, 900.0])
+    pred = Predictor(k.model, k.names, k.fixed, points(["conductivity"] * 3, Tp), scale=k.sd)
+    _, J = pred.jacobian(k.draws)
+    for d, row in enumerate(k.draws):
+        th = k.theta(row)
+        for j, name in enumerate(k.names):
+            h = 1e-3 * max(abs(th[name]), k.sd[j])
+            up = k.model.property("conductivity", {**th, name: th[name] + h}, Tp)
+            down = k.model.property("conductivity", {**th, name: th[name] - h}, Tp)
+            assert J[d, :, j] == pytest.approx((up - down) / (2 * h), rel=1e-3, abs=1e-9 * np.abs(up).max())

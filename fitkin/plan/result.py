@@ -109,7 +109,7 @@ class PlanResult:
                 f"  current uncertainty from: {k.source} ({inp['draws_used']} parameter draws, seed {inp['seed']})"]
         lines = head + self._point_lines()
         lines.append("  expected standard uncertainty:")
-        lines.append(f"    {'':<26s} {'value':>16s} {'now':>10s} {'after plan':>10s} {'uniform':>10s} {'gain':>6s}")
+        lines.append(f"    {'':<30s} {'value':>16s} {'now':>10s} {'after plan':>10s} {'uniform':>10s} {'gain':>6s}")
         for r in self.rows:
             if r.goal:
                 kind = r.name.split("@")[0]
@@ -117,9 +117,10 @@ class PlanResult:
                 name, value = f"{r.name} [%]", f"{r.value * factor:.5g} {unit}"
                 vals = [100 * x for x in (r.before, r.plan, r.uniform)]
             else:
-                name, value = f"{r.name} [{UNITS.get(r.name, r.unit)}]", f"{r.value:.5g}"
+                unit = UNITS.get(r.name, r.unit)
+                name, value = (f"{r.name} [{unit}]" if unit else r.name), f"{r.value:.5g}"
                 vals = [r.before, r.plan, r.uniform]
-            lines.append(f"    {name:<26s} {value:>16s} " + " ".join(f"{v:10.4g}" for v in vals)
+            lines.append(f"    {name:<30s} {value:>16s} " + " ".join(f"{v:10.4g}" for v in vals)
                          + f" {100 * r.gain:5.0f}%")
         if any(g.startswith("discriminate:") for g in self.goals):
             lines.append(f"  expected power to tell the shapes apart (χ² of the difference after the rival refits): "

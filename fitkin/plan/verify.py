@@ -43,11 +43,11 @@ class Verification:
     def lines(self) -> list[str]:
         out = [f"  simulation check ({self.replications} synthetic data sets per design, seed {self.seed}"
                + (f", {self.failed} fits failed and were left out" if self.failed else "") + "):",
-               f"    {'':<26s} {'expected':>10s} {'realised':>10s} {'uniform exp.':>12s} {'uniform real.':>13s}"]
+               f"    {'':<30s} {'expected':>10s} {'realised':>10s} {'uniform exp.':>12s} {'uniform real.':>13s}"]
         for r in self.rows:
             f = 100.0 if r["goal"] else 1.0
             name = r["name"] + (" [%]" if r["goal"] else "")
-            out.append(f"    {name:<26s} {f * r['expected_plan']:10.4g} {f * r['realised_plan']:10.4g} "
+            out.append(f"    {name:<30s} {f * r['expected_plan']:10.4g} {f * r['realised_plan']:10.4g} "
                        f"{f * r['expected_uniform']:12.4g} {f * r['realised_uniform']:13.4g}")
         return out
 
