@@ -204,11 +204,29 @@ class CollisionTable:
         OutOfRangeError : T* outside the table, or (l, s) not tabulated.
         """
         self._check_pair(l, s)
+        k, dx = self._segments(T_star)
+        return np.exp(self._ln_omega_at(l, s, k, dx)).reshape(np.shape(T_star))
+
+    def omega_many(self, pairs, T_star) -> np.ndarray:
+        """(len(pairs), T_star.size) array of Ω(l,s)*(T*) for each (l, s) of ``pairs``, the
+        values of :meth:`omega`, with the interval search in ln T* done once for all pairs."""
+        for l, s in pairs:
+            self._check_pair(l, s)
+        k, dx = self._segments(T_star)
+        out = np.empty((len(pairs), k.size))
+        for j, (l, s) in enumerate(pairs):
+            np.exp(self._ln_omega_at(l, s, k, dx), out=out[j])
+        return out
+
+    def _segments(self, T_star):
+        """Interval index k and offset dx in ln T* of every T* (1-d), after the range check."""
         x = self._ln_t(T_star)
         u = (x - self._x0) * self._inv_h
         k = u.astype(np.intp)  # u ≥ -1e-12 after the range check, so k ≥ 0
         np.minimum(k, self._nseg - 1, out=k)
-        dx = (u - k) * self._h
+        return k, (u - k) * self._h
+
+    def _ln_omega_at(self, l, s, k, dx):
         c = self._coef[l - 1, s - 1]
         y = c[0].take(k)
         y *= dx
@@ -217,7 +235,7 @@ class CollisionTable:
         y += c[2].take(k)
         y *= dx
         y += c[3].take(k)
-        return np.exp(y).reshape(np.shape(T_star))
+        return y
 
     def error_estimate(self, l: int, s: int, T_star) -> np.ndarray:
         """Estimated relative error of :meth:`omega` at ``T_star`` (same shape), from the

@@ -14,7 +14,7 @@ the data could fix). Both are :class:`~fitkin.errors.FitError` naming the file.
 """
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from functools import cached_property
 
 import numpy as np
@@ -84,6 +84,12 @@ class FitData:
             weighted=bool(np.all(np.isfinite(unc) & (unc > 0))),
             notes=tuple(notes),
         )
+
+    def take(self, index) -> "FitData":
+        """The points at ``index`` (int array), with the same weighting and notes."""
+        index = np.asarray(index, dtype=int)
+        return replace(self, **{f: getattr(self, f)[index] for f in
+                                ("kind", "temperature", "value", "uncertainty", "pressure", "source", "rows", "file")})
 
     def __len__(self) -> int:
         return len(self.temperature)

@@ -21,7 +21,13 @@ from ..errors import FitError, OutOfRangeError
 from .fitdata import FitData
 from .model import SIGMA_CUBED_KINDS, ForwardModel
 
-__all__ = ["epsilon_bounds", "starting_values", "profile_sigma", "SIGMA_START_RANGE"]
+__all__ = ["epsilon_bounds", "starting_values", "profile_sigma", "start_sample", "SIGMA_START_RANGE",
+           "START_POINTS"]
+
+#: Most points the ε/k start grid is evaluated on. A start needs the shape of the data over
+#: temperature, not every point of a table of a million rows: beyond this, an evenly spaced
+#: selection (see :func:`start_sample`) is used, and the least-squares fit then uses every point.
+START_POINTS = 5000
 
 #: σ (Å) searched by the start when B data make the σ profile non-linear; the same range
 #: the least-squares fit allows (fitkin.inference.leastsq.SIGMA_BOUNDS_ANGSTROM).
@@ -78,10 +84,29 @@ def profile_sigma(unit, y, w, cubic) -> tuple[float, float]:
     return float(np.exp(grid[i])), float(values[i])
 
 
+def start_sample(data: FitData, limit: int = START_POINTS) -> FitData:
+    """``data`` itself up to ``limit`` points; else about ``limit`` of them, per kind a share
+    evenly spaced in temperature with the lowest and highest kept."""
+    if len(data) <= limit:
+        return data
+    chosen = []
+    for kind in data.kinds:
+        idx = np.flatnonzero(data.mask(kind))
+        by_t = idx[np.argsort(data.temperature[idx], kind="stable")]
+        share = max(2, limit * len(idx) // len(data))
+        chosen.append(by_t[np.unique(np.round(np.linspace(0, len(by_t) - 1, share)).astype(int))])
+    return data.take(np.sort(np.concatenate(chosen)))
+
+
 def starting_values(model: ForwardModel, data: FitData, shape: dict | None = None, points: int = 48):
-    """(sigma_Å, epsilon_over_k_K, chi2) of the best grid point; ``shape`` fixes free shape parameters."""
+    """(sigma_Å, epsilon_over_k_K, chi2) of the best grid point; ``shape`` fixes free shape parameters.
+
+    The ε/k range comes from every point; the grid is evaluated on :func:`start_sample` of
+    the data (all of it up to :data:`START_POINTS` points), so χ² is that sample's.
+    """
     shape = dict(shape or {})
     eps_lo, eps_hi = epsilon_bounds(data, model.transport(shape or None).t_star_range)
+    data = start_sample(data)
     eps_lo = max(eps_lo, 1.0)
     eps_hi = min(eps_hi, 2e4)
     if eps_lo >= eps_hi:

@@ -11,7 +11,7 @@ largest ones). ``residuals`` then holds a selection of at most :data:`INLINE_LIM
 (evenly spaced in temperature per property, ends and the largest deviations kept), enough
 for the report's figures; ``residuals_file.selection`` says so.
 
-The archive (``savez_compressed``, no pickled objects) holds ``files``, ``sources`` and
+The archive (a NumPy ``.npz``: a deflated zip of ``.npy`` arrays, no pickled objects) holds ``files``, ``sources`` and
 ``properties`` (the distinct texts) with ``file_index``, ``source_index`` and
 ``property_index`` per point, and the numeric arrays ``row``, ``T_K``, ``measured_SI``,
 ``uncertainty_SI`` (NaN where no uncertainty was stated), ``model_SI`` and
@@ -27,6 +27,7 @@ from dataclasses import dataclass
 from pathlib import Path
 
 import numpy as np
+import pandas as pd
 
 from ..errors import ParameterFileError
 from ..measurements import SIGNED_KINDS
@@ -42,7 +43,7 @@ LARGEST_LISTED = 10
 _NUMERIC = ("T_K", "measured_SI", "uncertainty_SI", "model_SI", "deviation_percent")
 _TEXT = (("file", "files", "file_index"), ("source", "sources", "source_index"),
          ("property", "properties", "property_index"))
-FORMAT = "numpy .npz (savez_compressed)"
+FORMAT = "numpy .npz (zip of .npy arrays, deflated)"
 #: The entries of one residual, in the order the parameter file lists them.
 RESIDUAL_FIELDS = ("file", "row", "source", "property") + _NUMERIC
 
@@ -86,13 +87,19 @@ class ResidualColumns:
                 for f, r, s, k, *values in zip(texts[0], self.row[idx].tolist(), texts[1], texts[2], *numbers)]
 
     def to_npz(self) -> bytes:
+        """The archive's bytes: one .npy member per array in a deflated zip (what
+        ``numpy.savez_compressed`` writes, at the fastest compression level: a million
+        points take a fraction of a second instead of several seconds)."""
         arrays = {"row": self.row.astype(np.int64)}
         for attr, names, index in _TEXT:
-            distinct, inverse = np.unique(np.asarray(getattr(self, attr), dtype=str), return_inverse=True)
-            arrays[names], arrays[index] = distinct, inverse.astype(np.int32)
+            codes, distinct = pd.factorize(pd.Series(getattr(self, attr), dtype=object).astype(str), sort=False)
+            arrays[names], arrays[index] = np.asarray(distinct, dtype=str), codes.astype(np.int32)
         arrays.update({k: getattr(self, k).astype(float) for k in _NUMERIC})
         buf = io.BytesIO()
-        np.savez_compressed(buf, **arrays)
+        with zipfile.ZipFile(buf, "w", compression=zipfile.ZIP_DEFLATED, compresslevel=1) as archive:
+            for name, array in arrays.items():
+                with archive.open(f"{name}.npy", "w", force_zip64=True) as member:
+                    np.lib.format.write_array(member, np.asarray(array), allow_pickle=False)
         return buf.getvalue()
 
     @classmethod

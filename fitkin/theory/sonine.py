@@ -93,7 +93,23 @@ def required_pairs(order, property):
     return sorted(set(pairs) | {_FIRST_PAIR[problem]})
 
 
-def _evaluate(omega, pairs, t_star):
+def _evaluate(omega, pairs, t_star, many=None):
+    """(npairs, points) array of Ω(l,s)* for ``pairs``; ``many(pairs, T*)`` evaluates all
+    pairs in one call when the provider offers it."""
+    if many is not None:
+        try:
+            values = np.asarray(many(pairs, t_star), dtype=float).reshape(len(pairs), -1)
+        except FitkinError:
+            raise
+        except Exception as exc:
+            raise PotentialError(f"the collision-integral provider failed: {exc}") from exc
+        bad = ~(np.isfinite(values) & (values > 0.0))
+        if bad.any():
+            l, s = pairs[int(np.flatnonzero(bad.any(axis=1))[0])]
+            raise PotentialError(
+                f"the collision-integral provider returned a non-positive or non-finite "
+                f"Ω({l},{s})*; reduced collision integrals must be positive numbers")
+        return values
     values = []
     for l, s in pairs:
         try:
@@ -108,19 +124,18 @@ def _evaluate(omega, pairs, t_star):
             raise PotentialError(
                 f"the collision-integral provider returned a non-positive or non-finite "
                 f"Ω({l},{s})*; reduced collision integrals must be positive numbers")
-        values.append(v)
-    return np.stack(values, axis=-1)
+        values.append(v.ravel())
+    return np.stack(values)
 
 
-def _correction(problem, omega, T_star, order):
+def _correction(problem, omega, T_star, order, omega_many=None):
     t_star = np.asarray(T_star, dtype=float)
     pairs, coefficients = bracket_coefficients(problem, order)   # validates order
     if order == 1:
         return np.ones_like(t_star)
-    values = _evaluate(omega, pairs, t_star)                      # (..., npairs)
+    values = _evaluate(omega, pairs, t_star, omega_many)          # (npairs, points)
     n = coefficients.shape[0]
-    flat = values.reshape(-1, values.shape[-1])                   # (points, npairs)
-    m = (flat @ coefficients.reshape(n * n, -1).T).T.reshape(n, n, -1)   # (N, N, points)
+    m = (coefficients.reshape(n * n, -1) @ values).reshape(n, n, -1)   # (N, N, points)
     f = _first_over_inverse(m)
     if f is None:  # a zero pivot: fall back to LU with partial pivoting
         f = _solved(np.moveaxis(m, -1, 0))
@@ -160,7 +175,7 @@ def _solved(m):
     return m[..., 0, 0] * x[..., 0]
 
 
-def viscosity_correction(omega, T_star, order=3):
+def viscosity_correction(omega, T_star, order=3, omega_many=None):
     """Factor f_μ^(N) with μ = μ_[1] f_μ^(N) (Sonine approximation of order N).
 
     Parameters
@@ -168,6 +183,9 @@ def viscosity_correction(omega, T_star, order=3):
     omega : callable ``omega(l, s, T_star) -> ndarray``, reduced Ω(l,s)*.
     T_star : array_like, reduced temperature kT/ε, any shape.
     order : int, 1 ≤ order ≤ :data:`MAX_ORDER` (order 1 gives ones).
+    omega_many : optional callable ``omega_many(pairs, T_star) -> (len(pairs), T_star.size)``
+        giving the same values as ``omega`` for several pairs in one call (faster for
+        many points); ``omega`` is used when it is None.
 
     Returns
     -------
@@ -180,10 +198,10 @@ def viscosity_correction(omega, T_star, order=3):
     eq. 7.3-68 and §8.2.  Rigid spheres converge to 1.016034 (Chapman & Cowling 1970,
     §10.21, from memory).
     """
-    return _correction("viscosity", omega, T_star, order)
+    return _correction("viscosity", omega, T_star, order, omega_many)
 
 
-def conductivity_correction(omega, T_star, order=3):
+def conductivity_correction(omega, T_star, order=3, omega_many=None):
     """Factor f_k^(N) with k = k_[1] f_k^(N) for a monatomic gas (translational heat flow).
 
     Parameters and result as :func:`viscosity_correction`.
@@ -194,10 +212,10 @@ def conductivity_correction(omega, T_star, order=3):
     and §8.2.  Rigid spheres converge to 1.025218 (Chapman & Cowling 1970, §10.21, from
     memory).
     """
-    return _correction("conductivity", omega, T_star, order)
+    return _correction("conductivity", omega, T_star, order, omega_many)
 
 
-def self_diffusion_correction(omega, T_star, order=3):
+def self_diffusion_correction(omega, T_star, order=3, omega_many=None):
     """Factor f_D^(N) with D = D_[1] f_D^(N), D_[1] = (3/8)(πmkT)^{1/2}/(n m π σ² Ω(1,1)*).
 
     Tracer (self-) diffusion of a labelled molecule among mechanically identical ones: the
@@ -210,7 +228,7 @@ def self_diffusion_correction(omega, T_star, order=3):
     Chapman & Cowling (1970), §9.2, §10.2 (binary diffusion and its higher approximations);
     Hirschfelder, Curtiss & Bird (1954), §7.4 and eq. 8.2-44 for D_[1] (number from memory).
     """
-    return _correction("self_diffusion", omega, T_star, order)
+    return _correction("self_diffusion", omega, T_star, order, omega_many)
 
 
 def _ratios(omega, t_star, pairs):

@@ -81,6 +81,13 @@ class TransportModel:
             raise FitkinError(f"the Neufeld correlation gives no Ω({l},{s})*")
         return self._table.omega(l, s, t)
 
+    def omega_many(self, pairs, T_star) -> np.ndarray:
+        """(len(pairs), T_star.size) array of :meth:`omega` for each (l, s) of ``pairs``."""
+        t = np.asarray(T_star, dtype=float)
+        if self.collision == "neufeld":
+            return np.stack([np.ravel(self.omega(l, s, t)) for l, s in pairs])
+        return self._table.omega_many(pairs, t)
+
     @property
     def t_star_range(self) -> tuple[float, float]:
         if self.collision == "neufeld":
@@ -99,7 +106,7 @@ class TransportModel:
         fn = {"viscosity": sonine.viscosity_correction,
               "conductivity": sonine.conductivity_correction,
               "self_diffusion": sonine.self_diffusion_correction}[which]
-        return fn(self.omega, T_star, order=self.order)
+        return fn(self.omega, T_star, order=self.order, omega_many=self.omega_many)
 
     # -- properties ----------------------------------------------------------------------
     @staticmethod
