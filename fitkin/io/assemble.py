@@ -6,6 +6,7 @@ one :class:`~fitkin.measurements.PropertySeries` is made per property kind that 
 """
 from __future__ import annotations
 
+from operator import itemgetter
 from pathlib import Path
 
 import numpy as np
@@ -14,7 +15,8 @@ from fitkin import units
 from fitkin.errors import InputError
 import fitkin.io.validate as validate
 from fitkin.io.headers import ColumnSpec, column_letter
-from fitkin.io.numbers import CellValueError, detect_decimal_comma, is_blank, parse_number
+from fitkin.io.numbers import (CellValueError, detect_decimal_comma, has_no_comma, is_blank, parse_number,
+                               parse_plain_column)
 from fitkin.measurements import PRESSURE_KINDS, PROPERTY_KINDS, PropertySeries
 
 __all__ = ["TableAssembler", "MAX_CELL_PROBLEMS", "DIFFUSION_REFERENCE_PRESSURE"]
@@ -53,16 +55,39 @@ class TableAssembler:
         self.problems: list[InputError] = []
         self.warnings: list[str] = []
         self.series: list[PropertySeries] = []
+        self._columns: dict[int, list] = {}
+        self._width_range: tuple[int, int] | None = None
 
     def cell(self, i: int, index: int):
         cells = self.body[i][1]
         return cells[index] if index < len(cells) else ""
 
+    def column(self, index: int) -> list:
+        """The cells of column ``index`` of every data row ('' where a row is shorter)."""
+        found = self._columns.get(index)
+        if found is None:
+            if index < self._widths[0]:  # every row reaches this column
+                found = list(map(itemgetter(index), map(itemgetter(1), self.body)))
+            else:
+                found = [cells[index] if index < len(cells) else "" for _, cells in self.body]
+            self._columns[index] = found
+        return found
+
+    @property
+    def _widths(self) -> tuple[int, int]:
+        """(fewest, most) cells of a data row."""
+        if self._width_range is None:
+            lengths = list(map(len, map(itemgetter(1), self.body)))
+            self._width_range = (min(lengths, default=0), max(lengths, default=0))
+        return self._width_range
+
     def run(self) -> None:
         self._check_stray_cells()
         numeric = [s for s in self.specs if s.role in ("quantity", "uncertainty")]
-        decimal_comma, _ = detect_decimal_comma(
-            self.cell(i, s.index) for s in numeric for i in range(len(self.body)))
+        columns = [self.column(s.index) for s in numeric]
+        decimal_comma = False
+        if not all(has_no_comma(c) for c in columns):
+            decimal_comma, _ = detect_decimal_comma(c for column in columns for c in column)
         raw = {s.index: self._parse_column(s, decimal_comma) for s in numeric}
         quantities: dict[str, ColumnSpec] = {}
         for s in self.specs:
@@ -86,7 +111,7 @@ class TableAssembler:
                 continue
             values = raw[spec.index]
             measured_any |= np.isfinite(values)
-            self._check_temperature_present(temperature, values, kelvin, spec)
+            self._check_temperature_present(temperature, values, raw[temperature.index], spec)
             if kind not in si:
                 continue
             if spec.kind.positive:
@@ -125,12 +150,13 @@ class TableAssembler:
     def _check_stray_cells(self) -> None:
         """One problem per column that holds values but has no header cell."""
         width = len(self.specs)
-        blank_headers = {s.index for s in self.specs if s.role == "blank"}
+        candidates = {s.index for s in self.specs if s.role == "blank"}
+        candidates.update(range(width, self._widths[1]))
         stray: dict[int, list[tuple[int, object]]] = {}
-        for row, cells in self.body:
-            for index, cell in enumerate(cells):
-                if not is_blank(cell) and (index >= width or index in blank_headers):
-                    stray.setdefault(index, []).append((row, cell))
+        for index in sorted(candidates):
+            found = [(row, cell) for (row, _), cell in zip(self.body, self.column(index)) if not is_blank(cell)]
+            if found:
+                stray[index] = found
         for index, found in sorted(stray.items()):
             row, cell = found[0]
             more = f" and {len(found) - 1} more ({validate.format_rows(r for r, _ in found)})" \
@@ -141,10 +167,13 @@ class TableAssembler:
 
     def _parse_column(self, spec: ColumnSpec, decimal_comma: bool) -> np.ndarray:
         """Numbers of one column, NaN for blank cells; at most MAX_CELL_PROBLEMS reported."""
+        cells = self.column(spec.index)
+        values = parse_plain_column(cells, decimal_comma=decimal_comma)
+        if values is not None:
+            return values
         values = np.full(len(self.body), np.nan)
         bad_rows = []
-        for i, (row, _) in enumerate(self.body):
-            cell = self.cell(i, spec.index)
+        for i, ((row, _), cell) in enumerate(zip(self.body, cells)):
             if is_blank(cell):
                 continue
             try:
@@ -225,8 +254,7 @@ class TableAssembler:
         if spec is None:
             return labels
         blank = []
-        for i in range(len(self.body)):
-            cell = self.cell(i, spec.index)
+        for i, cell in enumerate(self.column(spec.index)):
             if is_blank(cell):
                 blank.append(self.rows[i])
             else:
@@ -236,15 +264,15 @@ class TableAssembler:
                                  f"no source label; labelled '{default}'")
         return labels
 
-    def _check_temperature_present(self, temperature, values, kelvin, spec) -> None:
-        raw_t = self._raw_blank(temperature.index)
-        for i in np.flatnonzero(np.isfinite(values) & raw_t):
+    def _check_temperature_present(self, temperature, values, raw_t, spec) -> None:
+        # a blank temperature cell parses as NaN; of those rows, the blank ones (not the
+        # non-numeric ones, already reported) are the points without a temperature
+        suspects = np.flatnonzero(np.isfinite(values) & ~np.isfinite(raw_t))
+        column = self.column(temperature.index)
+        for i in (i for i in suspects if is_blank(column[i])):
             self.problems.append(InputError(
                 f"a {spec.kind.label} value but no temperature", file=self.file, row=int(self.rows[i]),
                 column=temperature.header, hint="every measured point needs its temperature"))
-
-    def _raw_blank(self, index: int) -> np.ndarray:
-        return np.array([is_blank(self.cell(i, index)) for i in range(len(self.body))], dtype=bool)
 
     def _uncertainty_spec(self, kind: str) -> ColumnSpec | None:
         return next((s for s in self.specs if s.role == "uncertainty" and s.kind.name == kind), None)
@@ -271,9 +299,10 @@ class TableAssembler:
 
     def _unused_uncertainty(self, spec, raw, si) -> None:
         values = raw[spec.index]
-        self.problems += [InputError(f"a standard uncertainty must not be negative, found {v:g}",
-                                     file=self.file, row=int(r), column=spec.header)
-                          for v, r in zip(values, self.rows) if np.isfinite(v) and v < 0]
+        negative = np.flatnonzero(np.isfinite(values) & (values < 0))
+        self.problems += [InputError(f"a standard uncertainty must not be negative, found {values[i]:g}",
+                                     file=self.file, row=int(self.rows[i]), column=spec.header)
+                          for i in negative]
         self.warnings.append(f"{self.file}: column '{spec.header}' was read but is not used: fitkin "
                              f"treats {spec.kind.label} values as exact")
 

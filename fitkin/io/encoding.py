@@ -8,6 +8,8 @@ side) rather than refused as a binary file.
 """
 from __future__ import annotations
 
+import re
+
 from fitkin.errors import InputError
 
 __all__ = ["decode_text", "TextDecodeError"]
@@ -85,6 +87,9 @@ def decode_text(data: bytes, path: str, *, what: str = "a text table",
     return _checked(text, path, what, hint, None), notes
 
 
+#: Control characters no text table holds (below U+0020, except tab, newline, vertical tab,
+#: form feed and carriage return): their presence means a binary file.
+_CONTROL = re.compile("[\x00-\x08\x0e-\x1f]")
 _ENDIAN = {"utf-16-le": "little-endian", "utf-16-be": "big-endian"}
 
 
@@ -104,7 +109,8 @@ def _utf16_without_bom(data: bytes) -> str | None:
 
 def _checked(text: str, path: str, what: str, hint: str, decoded_as: str | None) -> str:
     text = text.rstrip("\x1a")  # DOS end-of-file marker
-    bad = next((c for c in text if ord(c) < 32 and c not in "\t\n\r\f\v"), None)
+    found = _CONTROL.search(text)
+    bad = found.group() if found else None
     if bad is not None:
         how = f" after decoding it as {decoded_as}" if decoded_as else ""
         raise TextDecodeError(f"this is a binary file, not {what} (it contains control characters"

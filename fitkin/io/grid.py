@@ -59,15 +59,18 @@ def read_grid(data: bytes, path: str, *, sheet: str | int | None = None) -> Cell
 def _split_text(text: str, path: str) -> CellGrid:
     lines = text.replace("\r\n", "\n").replace("\r", "\n").split("\n")
     grid = CellGrid()
-    content: list[tuple[int, str]] = []
-    for number, line in enumerate(lines, start=1):
-        stripped = line.strip()
-        if not stripped:
-            continue
-        if stripped.startswith("#"):
-            grid.comments.append(stripped[1:].strip())
-            continue
-        content.append((number, line))
+    if "#" in text:
+        content: list[tuple[int, str]] = []
+        for number, line in enumerate(lines, start=1):
+            stripped = line.strip()
+            if not stripped:
+                continue
+            if stripped.startswith("#"):
+                grid.comments.append(stripped[1:].strip())
+                continue
+            content.append((number, line))
+    else:  # no comment lines: only the blank ones are left out
+        content = [(number, line) for number, line in enumerate(lines, start=1) if line and not line.isspace()]
     if not content:
         return grid
     declared = _SEP_LINE.match(content[0][1].strip())
@@ -78,6 +81,11 @@ def _split_text(text: str, path: str) -> CellGrid:
             return grid
     else:
         grid.delimiter = detect_delimiter([line for _, line in content[:_SAMPLE_ROWS]])
+    if '"' not in text:
+        fast = _split_unquoted(content, grid.delimiter, text)
+        if fast is not None:
+            grid.rows = fast
+            return grid
     starts: list[int] = []
 
     def feed():
@@ -112,6 +120,25 @@ def _split_text(text: str, path: str) -> CellGrid:
             continue  # a line of only separators, e.g. ';;;' from a spreadsheet export
         grid.rows.append((starts[consumed], cells))
     return grid
+
+
+def _split_unquoted(content: list[tuple[int, str]], delimiter: str, text: str) -> list[tuple[int, list]] | None:
+    """The rows of text without quotation marks, split by the csv module in one pass (no cell
+    can then span lines); None when the csv module refuses a line, so that the line-by-line
+    reader below finds it and names the row."""
+    numbers, lines = zip(*content)
+    try:
+        split = list(csv.reader(lines, delimiter=delimiter, skipinitialspace=True))
+    except csv.Error:
+        return None
+    if len(split) != len(content):
+        return None
+    sep = re.escape(delimiter)
+    if not re.search(rf"^[^\S\n]*{sep}(?:[^\S\n]|{sep})*$", text, re.MULTILINE):
+        return list(zip(numbers, split))
+    # a line of only separators and blanks (';;;' from a spreadsheet export) is skipped
+    return [(number, cells) for (number, line), cells in zip(content, split)
+            if line.replace(delimiter, "").strip()]
 
 
 def _open_quote(path: str, first: int, last: int, lines: dict[int, str], delimiter: str,

@@ -11,7 +11,10 @@ import math
 import re
 import unicodedata
 
-__all__ = ["CellValueError", "detect_decimal_comma", "parse_number", "is_blank", "strip_invisible"]
+import numpy as np
+
+__all__ = ["CellValueError", "detect_decimal_comma", "parse_number", "parse_plain_column", "has_no_comma", "is_blank",
+           "strip_invisible"]
 
 _POINT = re.compile(r"^[+\-]?(?:\d+\.\d*|\.\d+)(?:[eE][+\-]?\d+)?$")
 _COMMA = re.compile(r"^[+\-]?(?:\d+,\d*|,\d+)(?:[eE][+\-]?\d+)?$")
@@ -52,6 +55,9 @@ def detect_decimal_comma(cells) -> tuple[bool, bool]:
     (decimal_comma, mixed) : ``decimal_comma`` is True when comma-decimal cells outnumber
     point-decimal ones; ``mixed`` is True when both styles occur.
     """
+    cells = list(cells)
+    if has_no_comma(cells):
+        return False, False  # text cells only, and none can be written with a decimal comma
     commas = points = 0
     for cell in cells:
         if not isinstance(cell, str):
@@ -102,6 +108,44 @@ def parse_number(cell, *, decimal_comma: bool) -> float:
     if not math.isfinite(value):
         raise CellValueError(f"expected a finite number, found '{cell}'")
     return value
+
+
+def has_no_comma(cells) -> bool:
+    """True when every cell is text and none holds a comma (so none is a decimal-comma number)."""
+    try:
+        return "," not in "".join(cells)
+    except TypeError:  # numbers among the cells (a workbook)
+        return False
+
+
+def parse_plain_column(cells, *, decimal_comma: bool) -> np.ndarray | None:
+    """Every cell of a column at once, NaN for blank ones, when the column is plain: text
+    cells in ASCII, decimal points, no comma or underscore anywhere, every number finite.
+
+    For such cells :func:`parse_number` gives the same values (float() accepts nothing
+    else there that the patterns refuse: the only other forms are 'nan' and 'inf', caught
+    as not finite). Returns None for anything else; the caller then parses cell by cell and
+    names each bad cell.
+    """
+    if decimal_comma:
+        return None
+    try:
+        joined = "".join(cells)
+    except TypeError:  # numbers among the cells (a workbook)
+        return None
+    if not joined.isascii() or "," in joined or "_" in joined:
+        return None
+    try:
+        values = np.array(cells, dtype=float)  # every cell filled: the common case
+    except ValueError:
+        blank = np.fromiter((not c.strip() for c in cells), dtype=bool, count=len(cells))
+        values = np.full(len(cells), np.nan)
+        try:
+            values[~blank] = np.array([c for c, b in zip(cells, blank) if not b], dtype=float)
+        except ValueError:
+            return None
+        return values if np.all(np.isfinite(values[~blank])) else None
+    return values if np.all(np.isfinite(values)) else None
 
 
 def _hint_for(text: str) -> str:

@@ -64,15 +64,16 @@ def check_temperature(spec: ColumnSpec, raw, kelvin, rows, file: str
     """
     problems: list[InputError] = []
     warnings: list[str] = []
-    for value, k, row in zip(raw, kelvin, rows):
-        if np.isfinite(k) and k <= 0:
-            if units.is_offset_unit(spec.unit):
-                hint = "this is below absolute zero; check the sign and the unit"
-            else:
-                hint = ("if these temperatures are in degrees Celsius, write "
-                        f"'{spec.header.split('[')[0].split('(')[0].strip()} [°C]'")
-            problems.append(InputError(
-                f"temperature {_value_text(value, spec, k)} is not above absolute zero", file=file, row=int(row), column=spec.header, hint=hint))
+    kelvin = np.asarray(kelvin, dtype=float)
+    cold = np.flatnonzero(np.isfinite(kelvin) & (kelvin <= 0))
+    for value, k, row in zip(np.asarray(raw)[cold], kelvin[cold], np.asarray(rows)[cold]):
+        if units.is_offset_unit(spec.unit):
+            hint = "this is below absolute zero; check the sign and the unit"
+        else:
+            hint = ("if these temperatures are in degrees Celsius, write "
+                    f"'{spec.header.split('[')[0].split('(')[0].strip()} [°C]'")
+        problems.append(InputError(
+            f"temperature {_value_text(value, spec, k)} is not above absolute zero", file=file, row=int(row), column=spec.header, hint=hint))
     high = spec.kind.plausible[1] if spec.kind.plausible else np.inf
     hot = np.isfinite(kelvin) & (kelvin > high)
     if hot.any():
@@ -86,13 +87,14 @@ def check_positive(spec: ColumnSpec, raw, si, rows, file: str, *, label: str | N
     """Every stated value must be > 0 (properties, pressures)."""
     problems = []
     what = label or spec.kind.label
-    for value, row in zip(raw, rows):
-        if np.isfinite(value) and value <= 0:
-            problems.append(InputError(
-                f"{what} must be positive, found {_fmt(value)}", file=file, row=int(row),
-                column=spec.header,
-                hint="pressures must be absolute, not gauge" if spec.kind.name == "pressure"
-                else "leave the cell empty where nothing was measured"))
+    raw = np.asarray(raw, dtype=float)
+    bad = np.flatnonzero(np.isfinite(raw) & (raw <= 0))
+    for value, row in zip(raw[bad], np.asarray(rows)[bad]):
+        problems.append(InputError(
+            f"{what} must be positive, found {_fmt(value)}", file=file, row=int(row),
+            column=spec.header,
+            hint="pressures must be absolute, not gauge" if spec.kind.name == "pressure"
+            else "leave the cell empty where nothing was measured"))
     return problems
 
 
@@ -162,7 +164,10 @@ def check_uncertainty(spec: ColumnSpec, raw, u_si, value_si, rows, file: str, va
     """
     problems: list[InputError] = []
     warnings: list[str] = []
-    for value, u, v, row in zip(raw, u_si, value_si, rows):
+    raw, value_si = np.asarray(raw, dtype=float), np.asarray(value_si, dtype=float)
+    has_u_all, has_v_all = np.isfinite(raw), np.isfinite(value_si)
+    odd = np.flatnonzero((has_u_all & (raw <= 0)) | (has_u_all != has_v_all))  # the rows below can flag
+    for value, v, row in zip(raw[odd], value_si[odd], np.asarray(rows)[odd]):
         where = dict(file=file, row=int(row), column=spec.header)
         has_u, has_v = np.isfinite(value), np.isfinite(v)
         if has_u and value <= 0:
