@@ -53,6 +53,7 @@ _EPILOG_PLAN = """examples:
 _EPILOG_BATCH = """examples:
   fitkin batch gases.toml --out batch-run             (one worker process per core)
   fitkin batch gases.toml --out batch-run --jobs 1    (one job after another; a rerun skips finished jobs)
+  fitkin batch gases.toml --out /shared/run --scheduler tcp://10.0.0.5:8786 --library fits.sqlite
 """
 _EPILOG_LIBRARY = """examples:
   fitkin library add fits.sqlite fit-argon fit-krypton --label "lab run 3"
@@ -242,6 +243,11 @@ def _add_batch_parser(sub) -> None:
                                                          "1 runs the jobs one after another in this process)")
     p.add_argument("--library", metavar="DB", help="add every finished fit to this parameter library (SQLite; "
                                                    "made if missing), labelled with its job's name")
+    dask = p.add_argument_group("Dask (pip install 'fitkin[dask]')")
+    dask.add_argument("--scheduler", metavar="tcp://HOST:PORT", help="run the jobs on this Dask cluster (its "
+                                                                     "workers must see DIR and the tables)")
+    dask.add_argument("--dask-local", type=int, metavar="N", help="start a local Dask cluster of N worker "
+                                                                  "processes for this run")
 
 
 def _add_library_parser(sub) -> None:

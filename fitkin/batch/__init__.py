@@ -3,7 +3,8 @@
 * :mod:`.manifest` — the TOML manifest read and checked into :class:`JobSpec` (one per job).
 * :mod:`.job` — one job run as ``fitkin fit`` runs it, in whichever process: :class:`JobOutcome`.
 * :mod:`.state` — fingerprints of options and input contents, so a rerun skips finished jobs.
-* :mod:`.executors` — in this process, or a local pool of processes.
+* :mod:`.executors` — in this process, or a local pool of processes; :mod:`.dask_executor` — on
+  a Dask cluster (the optional extra ``fitkin[dask]``).
 * :mod:`.summary_files` — ``summary.csv`` and ``index.html``.
 * :mod:`.runner` — :func:`run_batch`, tying them together (``fitkin batch``).
 """

@@ -3,7 +3,9 @@
 :func:`run_job` parses the job's options with the ``fit`` command's own parser and checks
 (:func:`fitkin.cli_checks.check_arguments`), reads the tables and runs
 :func:`fitkin.workflow.run_fit_job` exactly as ``fitkin fit`` does, writing the job's folder.
-It never raises for a job that fails: a user mistake (a bad table, a fit that does not
+Linear algebra runs on one thread (:func:`threadpoolctl.threadpool_limits`), so the
+arithmetic — and the result, to the last bit — is the same in every executor. It never
+raises for a job that fails: a user mistake (a bad table, a fit that does not
 converge) comes back as status "failed" with its one-line message, a fault of fitkin as
 "fault"; the other jobs go on. The :class:`JobOutcome` is plain data, so it travels back from
 a worker process (or a Dask worker) unchanged.
@@ -18,6 +20,8 @@ import time
 import warnings
 from dataclasses import dataclass, field, replace
 from pathlib import Path
+
+from threadpoolctl import threadpool_limits
 
 from ..cli import subcommand_parser
 from ..cli_checks import check_arguments
@@ -134,7 +138,10 @@ def run_job(spec: JobSpec, out_dir, force: bool = False) -> JobOutcome:
     out_dir = Path(out_dir)
     folder = out_dir / spec.name
     start = time.perf_counter()
-    with warnings.catch_warnings(record=True) as caught:
+    # one BLAS thread in every executor: the same arithmetic (so the same last bits) whether the
+    # job runs here, in a pool or on a Dask worker (which limits threads itself), and no
+    # oversubscription when one job runs per core
+    with threadpool_limits(limits=1), warnings.catch_warnings(record=True) as caught:
         warnings.simplefilter("ignore", RuntimeWarning)
         warnings.simplefilter("always", FitkinWarning)
         try:

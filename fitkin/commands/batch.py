@@ -8,6 +8,7 @@ from __future__ import annotations
 from pathlib import Path
 
 from ..batch import runner
+from ..batch.dask_executor import DaskExecutor
 from ..batch.manifest import load_manifest
 from ..batch.runner import format_duration
 from ..errors import FitkinError, UsageError
@@ -21,12 +22,29 @@ def _check(args) -> None:
     check_output_place(args.out, folder=True, what="--out")
     if args.jobs is not None and args.jobs < 1:
         raise UsageError(f"--jobs must be a whole number ≥ 1 (1 runs the jobs one after another), got {args.jobs}")
+    given = [o for o, v in (("--jobs", args.jobs), ("--scheduler", args.scheduler), ("--dask-local", args.dask_local))
+             if v is not None]
+    if len(given) > 1:
+        raise UsageError(f"{' and '.join(given)} each choose where the jobs run: give one of them")
+    if args.dask_local is not None and args.dask_local < 1:
+        raise UsageError(f"--dask-local must be a whole number ≥ 1 (worker processes), got {args.dask_local}")
+    if args.scheduler is not None and "://" not in args.scheduler and ":" not in args.scheduler:
+        raise UsageError(f"--scheduler expects the scheduler's address, e.g. tcp://10.0.0.5:8786, got "
+                         f"'{args.scheduler}'")
+
+
+def _executor(args):
+    """A Dask executor for --scheduler / --dask-local; None lets the batch choose a local one."""
+    if args.scheduler is None and args.dask_local is None:
+        return None
+    return DaskExecutor(scheduler=args.scheduler, local_workers=args.dask_local)
 
 
 def run_batch(args, out) -> int:
     _check(args)
     manifest = load_manifest(args.manifest)
     library = open_library(args.library, create=True) if args.library else None  # refused before any work
+    executor = None
     print(f"{len(manifest.jobs)} job{'s' if len(manifest.jobs) != 1 else ''} in {args.manifest}", file=out, flush=True)
 
     def store(outcome):
@@ -38,12 +56,15 @@ def run_batch(args, out) -> int:
             print(f"warning: {outcome.name} was not added to {args.library}: {exc}", file=out, flush=True)
 
     try:
-        result = runner.run_batch(manifest, args.out, jobs=args.jobs, force=args.force, on_outcome=store,
-                                  progress=lambda line: print(line, file=out, flush=True))
+        executor = _executor(args)
+        result = runner.run_batch(manifest, args.out, jobs=args.jobs, executor=executor, force=args.force,
+                                  on_outcome=store, progress=lambda line: print(line, file=out, flush=True))
         for outcome in result.outcomes:  # unchanged jobs too (adding a stored fit again changes nothing)
             if outcome.name in result.skipped:
                 store(outcome)
     finally:
+        if executor is not None:
+            executor.close()
         if library is not None:
             library.close()
     c = result.counts
