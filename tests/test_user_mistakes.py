@@ -77,6 +77,8 @@ def test_out_empty_is_refused(lab, params, capsys):
     expect_user_error(capsys, "predict", params, "-T", "300", "--out", "", fragments=["--out is empty"])
     expect_user_error(capsys, "report", params, "--out", "", fragments=["--out is empty"])
     expect_user_error(capsys, "demo", "--out", "", fragments=["--out is empty"])
+    expect_user_error(capsys, "plan", params, "--range", "300:400:50", "--points", "2", "--uncertainty", "0.3%",
+                      "--out", "", fragments=["--out is empty"])
 
 
 def test_predict_out_is_a_folder_even_with_force(params, tmp_path, capsys):
