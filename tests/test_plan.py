@@ -308,3 +308,24 @@ def test_jacobian_of_internal_transport_parameters_matches_finite_differences(tm
             up = k.model.property("conductivity", {**th, name: th[name] + h}, Tp)
             down = k.model.property("conductivity", {**th, name: th[name] - h}, Tp)
             assert J[d, :, j] == pytest.approx((up - down) / (2 * h), rel=1e-3, abs=1e-9 * np.abs(up).max())
+
+
+def _with_covariance(saved_fit, folder, correlation):
+    record = json.loads(saved_fit.read_text())
+    a, b = np.sqrt(np.diag(record["covariance"]["matrix"]))
+    record["covariance"]["matrix"] = [[a * a, correlation * a * b], [correlation * a * b, b * b]]
+    record["correlation"]["matrix"] = [[1.0, correlation], [correlation, 1.0]]
+    path = folder / "parameters.json"
+    path.write_text(json.dumps(record))
+    return path
+
+
+def test_cli_plan_warns_on_a_ridge_and_refuses_a_singular_covariance(saved_fit, tmp_path, capsys):
+    args = ["--range", "200:1000:10", "--points", "2", "--uncertainty", "0.3%", "--draws", "10"]
+    (tmp_path / "ridge").mkdir()
+    (tmp_path / "flat").mkdir()
+    assert main(["plan", str(_with_covariance(saved_fit, tmp_path / "ridge", -0.9997)), *args]) == 0
+    assert "almost fully correlated (r = -0.9997)" in capsys.readouterr().out
+    assert main(["plan", str(_with_covariance(saved_fit, tmp_path / "flat", -1.0)), *args]) == 2
+    err = capsys.readouterr().err
+    assert "singular" in err and len(err.strip().splitlines()) == 1

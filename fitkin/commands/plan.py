@@ -62,7 +62,8 @@ def run_plan(args, out) -> int:
     pressure = parse_quantity(args.pressure, "Pa", name="--pressure")
     result = plan_measurements(known, grid=args.range, points=args.points,
                                properties=[p for p in args.property.split(",") if p.strip()],
-                               uncertainty=args.uncertainty or None, goals=args.goal or ["parameters"], pressure=pressure,
+                               uncertainty=args.uncertainty or None, goals=args.goal or ["parameters"],
+                               pressure=pressure,
                                data=_existing(args), draws=args.draws, seed=args.seed)
     if args.verify:
         result = verify_plan(result, replications=args.verify, seed=args.seed)

@@ -105,7 +105,8 @@ def discrimination_at(knowledge, rivals, kinds, T, uncertainty, pressure: float 
     for r in rivals:
         values, J = Predictor(r.model, r.names, {}, data, scale=r.scale).jacobian(r.values[None])
         if not np.all(np.isfinite(J)):
-            raise UsageError(f"the {r.label} potential cannot be evaluated at every planned temperature; narrow --range")
+            raise UsageError(f"the {r.label} potential cannot be evaluated at every planned temperature; "
+                             "narrow --range")
         d = (reference[0] - values[0]) / u
         b = J[0] * r.scale[None, :] / u[:, None]
         out.append((d[None], b[None], r.precision))

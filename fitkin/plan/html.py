@@ -38,7 +38,8 @@ def plan_figure(result: PlanResult, kind: str) -> Figure:
     top.plot(T, value * factor, color=st.FIT, lw=1.4, label="current prediction")
     measured = [t for t, kd, _ in result.knowledge.measured if kd == kind]
     if measured:
-        top.plot(measured, np.interp(measured, T, value * factor), "o", ms=3.5, color=st.INK, label="measured temperatures")
+        top.plot(measured, np.interp(measured, T, value * factor), "o", ms=3.5, color=st.INK,
+                 label="measured temperatures")
     top.set_ylabel(f"{symbol} [{unit}]")
     top.legend(frameon=False, fontsize=8)
     for name, colour, label in (("now", _NOW, "now"), ("plan", _PLAN, "after the plan"),

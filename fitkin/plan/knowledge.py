@@ -50,6 +50,7 @@ class Knowledge:
     label : the potential's label.   seed : the seed of the draws.
     measured : ((T K, kind, u SI), ...) of the points behind a saved fit; empty for a prior.
     description : what the knowledge came from, for plan.json.
+    notes : findings about the knowledge worth a warning (e.g. parameters the fit did not determine).
     """
 
     model: ForwardModel
@@ -63,6 +64,7 @@ class Knowledge:
     seed: int
     measured: tuple = ()
     description: dict = field(default_factory=dict)
+    notes: tuple = ()
 
     @property
     def gas(self) -> Gas:
@@ -80,7 +82,7 @@ class Knowledge:
     def with_draws(self, keep) -> "Knowledge":
         """The same knowledge with only the draws where ``keep`` (D,) is true."""
         return Knowledge(self.model, self.names, self.fixed, self.center, self.covariance, self.draws[keep],
-                         self.source, self.label, self.seed, self.measured, self.description)
+                         self.source, self.label, self.seed, self.measured, self.description, self.notes)
 
 
 def _measured_points(record: dict) -> tuple:
@@ -130,10 +132,44 @@ def knowledge_from_fit(fit, *, draws: int = DEFAULT_DRAWS, seed: int = 0) -> Kno
     fixed = {k: v for k, v in values.items() if k not in names}
     fixed.update((record.get("posterior") or {}).get("fixed") or {})
     label = record["potential"].get("label") or record["potential"]["name"]
+    _check_positive_definite(covariance, where)
+    notes = _ridge_notes(names, covariance, [n for n in names if record["parameters"].get(n, {}).get("determined")
+                                             is False])
     return Knowledge(model, names, fixed, center, covariance, sample, source, label, seed,
                      _measured_points(record),
                      {"from": "saved fit", "file": str(fitted.path) if fitted.path else None, "uncertainty": source,
-                      "draws": int(len(sample))})
+                      "draws": int(len(sample))}, notes)
+
+
+#: Correlation beyond which the current knowledge is a ridge that linearisation describes poorly.
+RIDGE_CORRELATION = 0.999
+
+
+def _ridge_notes(names, covariance, undetermined) -> tuple:
+    """A warning when the fit leaves parameters undetermined or almost fully correlated."""
+    sd = np.sqrt(np.diag(covariance))
+    corr = covariance / np.outer(sd, sd)
+    pairs = [(names[i], names[j], corr[i, j]) for i in range(len(names)) for j in range(i + 1, len(names))
+             if abs(corr[i, j]) > RIDGE_CORRELATION]
+    if not undetermined and not pairs:
+        return ()
+    what = (f"does not determine {', '.join(undetermined)}" if undetermined else
+            f"leaves {pairs[0][0]} and {pairs[0][1]} almost fully correlated (r = {pairs[0][2]:+.4f})")
+    return (f"the saved fit {what}: the plan's linearised uncertainties may be far from what fits will give "
+            "(--verify shows how far); a prior helps (fitkin fit --sample --critical ...)",)
+
+
+def _check_positive_definite(covariance, where: str) -> None:
+    sd = np.sqrt(np.diag(covariance))
+    if not np.all(np.isfinite(sd) & (sd > 0)):
+        raise FitkinError(f"{where}: a parameter has no uncertainty in the fit's covariance, so nothing can be planned "
+                          "for it; refit, or plan from a prior")
+    try:
+        np.linalg.cholesky(covariance / np.outer(sd, sd))
+    except np.linalg.LinAlgError:
+        raise FitkinError(f"{where}: the fit's covariance is singular (its parameters are fully correlated), so the "
+                          "current uncertainty cannot be used; refit with a prior (fitkin fit --sample --critical "
+                          "...), or plan from a prior") from None
 
 
 def _prior_moments(prior: Prior, rng) -> tuple[float, float]:

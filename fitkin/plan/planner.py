@@ -13,7 +13,7 @@ from ..errors import OutOfRangeError, UsageError
 from ..fitted import FittedGas
 from ..inference.fitdata import FitData
 from ..inference.model import is_monatomic
-from ..measurements import PROPERTY_KINDS, SI_UNITS
+from ..measurements import PROPERTY_KINDS, SI_UNITS, SIGNED_KINDS
 from .criteria import DOptimal, GoalVariance
 from .design import design_precision, select_design
 from .discriminate import discrimination_at, rivals_for
@@ -67,7 +67,8 @@ def _check_coverage(k: Knowledge, kinds, T) -> None:
     if t_lo / eps < lo or t_hi / eps > hi:
         raise OutOfRangeError(f"the planned temperatures {t_lo:g}–{t_hi:g} K are T* = {t_lo / eps:.3g}–"
                               f"{t_hi / eps:.3g} at ε/k = {eps:.4g} K, outside the collision integrals of the "
-                              f"{k.label} potential (T* = {lo:g}–{hi:g}); plan within {lo * eps:.4g}–{hi * eps:.4g} K")
+                              f"{k.label} potential (T* = {lo:g}–{hi:g}); plan within "
+                              f"{lo * eps:.4g}–{hi * eps:.4g} K")
     hc = k.gas.heat_capacity
     if "conductivity" in kinds and hc is not None and k.model.internal is not None and not is_monatomic(k.gas):
         hc.check_covers(np.asarray(T, dtype=float), what="the planned conductivity temperatures")
@@ -124,8 +125,8 @@ def _rows(k, s, goal_values, goal_c, goals, precisions) -> tuple:
     for g, goal in enumerate(goals):
         c = goal_c[:, g, :]
         rel = {name: float(np.sqrt(np.mean(np.einsum("dp,dpq,dq->d", c, C, c)))) for name, C in covs.items()}
-        rows.append(UncertaintyRow(goal.label, SI_UNITS[goal.kind], float(np.mean(goal_values[:, g])), rel["now"], rel["plan"],
-                                   rel["uniform"], goal=True))
+        rows.append(UncertaintyRow(goal.label, SI_UNITS[goal.kind], float(np.mean(goal_values[:, g])), rel["now"],
+                                   rel["plan"], rel["uniform"], goal=True))
     return tuple(rows)
 
 
@@ -198,8 +199,14 @@ def plan_measurements(known, *, grid, points: int, properties=("viscosity",), un
         raise OutOfRangeError(f"only {int(keep.sum())} of {len(keep)} parameter draws can be evaluated at every "
                               f"planned temperature ({grid.low:g}–{grid.high:g} K) within the collision-integral "
                               "tables; narrow --range, or improve the current fit first")
-    warnings = [] if keep.all() else [f"{int((~keep).sum())} of {len(keep)} parameter draws fall outside what the "
-                                      "model covers over the range and were left out of the averages"]
+    warnings = list(k.notes)
+    if not keep.all():
+        warnings.append(f"{int((~keep).sum())} of {len(keep)} parameter draws fall outside what the model covers over "
+                        "the range and were left out of the averages")
+    if k.source == "prior" and "conductivity" in kinds and k.model.internal is not None \
+            and k.model.internal.name != "monatomic":
+        warnings.append(f"before any measurement the {k.model.internal.name} conductivity model's parameters are held "
+                        "at their defaults: the plan counts only the uncertainty of the potential's parameters")
     k = k.with_draws(keep)
     values, J = values[keep], J[keep]
     s = k.sd
@@ -209,7 +216,10 @@ def plan_measurements(known, *, grid, points: int, properties=("viscosity",), un
     a_all = information_vectors(values, Js, u_fun)
     a_cand, a_uni = a_all[:, :nc], a_all[:, nc:nc + nu]
     goal_values, goal_J = values[:, nc + nu:], Js[:, nc + nu:]
-    goal_c = goal_J / goal_values[:, :, None]
+    # relative to the value; for B, which changes sign, relative to its mean magnitude over the draws
+    signed = np.isin(np.array([g.kind for g in goal_points], dtype=object), SIGNED_KINDS)
+    goal_scale = np.where(signed[None, :], np.mean(np.abs(goal_values), axis=0)[None, :], goal_values)
+    goal_c = goal_J / goal_scale[:, :, None]
     corr = k.covariance / np.outer(s, s)
     prior = np.linalg.inv(corr)[None] + _existing_information(k, data, np.ones(len(k.draws), bool), s)
     if goal_list[0].form == "parameters":
@@ -241,12 +251,11 @@ def plan_measurements(known, *, grid, points: int, properties=("viscosity",), un
     rows = _rows(k, s, goal_values, goal_c, quantity_goals, precisions)
     inputs = {"range": grid.text, "range_K": [grid.low, grid.high], "candidates": int(m), "points": int(points),
               "properties": list(kinds), "uncertainty": {kd: u.describe() for kd, u in u_by_kind.items()},
-
               "pressure_Pa": float(pressure), "draws_used": int(len(k.draws)), "seed": int(k.seed),
               "existing_points": int(len(data)) if data is not None else 0}
     return PlanResult(points=plan_points, uniform=uniform, rows=rows, criterion=criterion.name,
                       goals=tuple(g.label for g in goal_list), values=scores,
                       curves=_curves(kinds, grid, values[:, :nc], a_cand,
-                                                    relative_or_absolute(cand_kinds, u_by_kind, cand_T), precisions), knowledge=k,
+                                     relative_or_absolute(cand_kinds, u_by_kind, cand_T), precisions), knowledge=k,
                       inputs=inputs, warnings=tuple(warnings), uncertainty=u_by_kind)
 

@@ -102,7 +102,8 @@ class PlanResult:
         """The text ``fitkin plan`` prints."""
         k = self.knowledge
         inp = self.inputs
-        head = [f"Plan for {k.gas.name} ({k.label}): {len(self.points)} new point{'s' if len(self.points) != 1 else ''} "
+        n = len(self.points)
+        head = [f"Plan for {k.gas.name} ({k.label}): {n} new point{'s' if n != 1 else ''} "
                 f"of {', '.join(inp['properties'])} in {inp['range_K'][0]:g}–{inp['range_K'][1]:g} K "
                 f"(u = {'; '.join(f'{a}: {b}' for a, b in inp['uncertainty'].items())})",
                 f"  goal: {', '.join(self.goals)} — {self.criterion}",

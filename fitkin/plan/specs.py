@@ -25,7 +25,8 @@ __all__ = ["CandidateGrid", "Uncertainty", "Goal", "parse_range", "parse_uncerta
 
 #: Most candidate temperatures of one grid (the search is cheap, the Jacobians are not).
 MAX_CANDIDATES = 5000
-GOAL_FORMS = "parameters, PROPERTY@TEMPERATURE (e.g. viscosity@1500K) or discriminate:SHAPE,SHAPE (e.g. discriminate:lj,mie)"
+GOAL_FORMS = ("parameters, PROPERTY@TEMPERATURE (e.g. viscosity@1500K) or discriminate:SHAPE,SHAPE "
+              "(e.g. discriminate:lj,mie)")
 _KIND_ALIASES = {"mu": "viscosity", "eta": "viscosity", "k": "conductivity", "lambda": "conductivity",
                  "thermal_conductivity": "conductivity", "d": "self_diffusion", "diffusion": "self_diffusion",
                  "b": "second_virial", "virial": "second_virial"}
@@ -139,7 +140,8 @@ class Uncertainty:
     def describe(self) -> str:
         if self.table is not None:
             lo, hi = self.table.temperature[0], self.table.temperature[-1]
-            return f"u(T) table {self.table.file} ({lo:g}–{hi:g} K, {'relative' if self.table.relative else 'absolute'})"
+            form = "relative" if self.table.relative else "absolute"
+            return f"u(T) table {self.table.file} ({lo:g}–{hi:g} K, {form})"
         if self.relative is not None:
             return f"{100 * self.relative:.4g} %"
         return f"{self.absolute:.4g} {SI_UNITS[self.kind]}"
