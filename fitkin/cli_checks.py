@@ -123,8 +123,7 @@ def _check_fit(args) -> None:
     if given and not args.sample:
         raise UsageError(f"{', '.join(given)} {'is' if len(given) == 1 else 'are'} used only when sampling "
                          "the posterior: add --sample (or leave the option out)")
-    if args.seed is not None and not 0 <= args.seed < 2**32:
-        raise UsageError(f"--seed must be a whole number from 0 to {2**32 - 1}, got {args.seed}")
+    _check_seed(args.seed)
     if args.walkers is not None and args.walkers < 2:
         raise UsageError(f"--walkers must be a whole number ≥ 2 (at least twice the parameters), got {args.walkers}")
     if args.max_steps is None:
@@ -176,11 +175,21 @@ def _check_report(args) -> None:
     _positive_quantity(args.pressure, "Pa", "--pressure", "101325 Pa")
 
 
+def _check_seed(seed) -> None:
+    if seed is not None and not 0 <= seed < 2**32:
+        raise UsageError(f"--seed must be a whole number from 0 to {2**32 - 1}, got {seed}")
+
+
+def _check_plan(args) -> None:
+    _check_out(args, folder=True)
+    _check_seed(args.seed)
+    _positive_quantity(args.pressure, "Pa", "--pressure", "101325 Pa")
+
+
 def check_arguments(args) -> None:
     """Raise :class:`UsageError` (or :class:`UnitError`) for an option value or combination that
     cannot work; fill in defaults that depend on other options."""
     check = {"check": _check_tables, "fit": _check_fit, "predict": _check_predict, "report": _check_report,
-             "demo": lambda a: _check_out(a, folder=True),
-             "plan": lambda a: _check_out(a, folder=True)}.get(args.command)
+             "demo": lambda a: _check_out(a, folder=True), "plan": _check_plan}.get(args.command)
     if check is not None:
         check(args)

@@ -190,6 +190,15 @@ def test_table_and_potential_options(lab, tmp_path, capsys, extra, fragment):
     assert not (tmp_path / "o").exists()
 
 
+@pytest.mark.parametrize("extra, fragment", [
+    (["--seed", "-1"], "--seed must be a whole number from 0"), (["--seed", str(2**32)], "--seed must be"),
+    (["--property", "self_diffusion", "--pressure", "0 Pa"], "--pressure must be above zero"),
+])
+def test_plan_option_values(params, capsys, extra, fragment):
+    expect_user_error(capsys, "plan", params, "--range", "300:400:50", "--points", "2", "--uncertainty", "0.3%",
+                      *extra, fragments=[fragment])
+
+
 def test_check_names_its_table_options(lab, capsys):
     expect_user_error(capsys, "check", lab / "visc.csv", "--pressure-limit", "0 Pa",
                       fragments=["--pressure-limit must be above zero"])
