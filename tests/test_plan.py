@@ -1,4 +1,5 @@
 """fitkin plan: Fisher information, the design search, the command line and its refusals."""
+import itertools
 import json
 from pathlib import Path
 
@@ -11,8 +12,9 @@ from fitkin.io import read_tables
 from fitkin.plan import knowledge_from_fit, plan_measurements
 from fitkin.plan.criteria import DOptimal, GoalVariance
 from fitkin.plan.design import select_design
-from fitkin.plan.fisher import Predictor, fisher_information, points
-from fitkin.plan.specs import parse_uncertainty
+from fitkin.plan.discriminate import discrimination_at, rivals_for
+from fitkin.plan.fisher import Predictor, fisher_information, points, relative_or_absolute
+from fitkin.plan.specs import parse_goal, parse_uncertainty
 from fitkin.plan.verify import verify_plan
 from fitkin.potentials import LennardJones
 from fitkin.species import Gas
@@ -329,3 +331,29 @@ def test_cli_plan_warns_on_a_ridge_and_refuses_a_singular_covariance(saved_fit, 
     assert main(["plan", str(_with_covariance(saved_fit, tmp_path / "flat", -1.0)), *args]) == 2
     err = capsys.readouterr().err
     assert "singular" in err and len(err.strip().splitlines()) == 1
+
+
+def test_greedy_with_exchange_finds_the_exhaustive_optimum_on_a_small_grid(saved_fit):
+    T = np.arange(150.0, 1501.0, 50.0)
+    plan = plan_measurements(saved_fit, grid="150:1500:50", points=3, uncertainty="0.3%",
+                             goals=["discriminate:lj,mie:16"], draws=10)
+    k = plan.knowledge
+    kinds = ["viscosity"] * len(T)
+    crit = discrimination_at(k, rivals_for(k, parse_goal("discriminate:lj,mie:16")), kinds, T,
+                             relative_or_absolute(kinds, plan.uncertainty, T))
+    best = min(itertools.combinations_with_replacement(range(len(T)), 3), key=crit.design_value)
+    assert crit.design_value(list(best)) == pytest.approx(plan.values["plan"], rel=1e-9)
+    assert sorted(T[list(best)]) == sorted(plan.temperatures)
+    # the same for the D-optimal criterion of the fitted parameters, averaged over draws
+    d_plan = plan_measurements(saved_fit, grid="150:1500:50", points=3, uncertainty="0.3%", draws=10)
+    pred = Predictor(k.model, k.names, k.fixed, points(kinds, T), scale=k.sd)
+    kk = d_plan.knowledge
+    values, J = pred.jacobian(kk.draws)
+    a = J * kk.sd[None, None, :] / (0.003 * values)[:, :, None]
+    prior = np.linalg.inv(kk.covariance / np.outer(kk.sd, kk.sd))[None]
+
+    def score(chosen):
+        c = list(chosen)
+        return DOptimal().value(np.linalg.inv(prior + np.einsum("dnp,dnq->dpq", a[:, c], a[:, c])))
+    best = min(itertools.combinations_with_replacement(range(len(T)), 3), key=score)
+    assert score(best) == pytest.approx(d_plan.values["plan"], rel=1e-9)

@@ -30,8 +30,10 @@ def plan_figure(result: PlanResult, kind: str) -> Figure:
     T = np.asarray(c["T"])
     value = np.asarray(c["value"])
     symbol, unit, factor = st.DISPLAY.get(kind, (kind, "SI", 1.0))
-    fig = Figure(figsize=(st.FIGURE_WIDTH, 5.4), layout="constrained")
-    top, bottom = fig.subplots(2, 1, sharex=True, height_ratios=(1, 1.3))
+    rivals = c.get("difference_over_u") or {}
+    fig = Figure(figsize=(st.FIGURE_WIDTH, 7.4 if rivals else 5.4), layout="constrained")
+    axes = fig.subplots(3 if rivals else 2, 1, sharex=True, height_ratios=(1, 1.3, 1) if rivals else (1, 1.3))
+    top, bottom = axes[0], axes[1]
     sd_now = np.asarray(c["sd_now"])
     top.fill_between(T, (value - 2 * sd_now) * factor, (value + 2 * sd_now) * factor, color=st.BAND, alpha=0.7,
                      lw=0, label="current band (±2 u)")
@@ -57,10 +59,17 @@ def plan_figure(result: PlanResult, kind: str) -> Figure:
         if kd == kind:
             bottom.plot([t], [0], marker="|", ms=10, color=_UNIFORM, transform=bottom.get_xaxis_transform())
     bottom.set_ylabel(f"u({symbol}) / {symbol} [%]")
-    bottom.set_xlabel("T [K]")
     bottom.set_ylim(bottom=0)
     bottom.legend(frameon=False, fontsize=8)
-    for ax in (top, bottom):
+    if rivals:
+        third = axes[2]
+        for (label, diff), colour in zip(rivals.items(), st.SOURCE_COLOURS):
+            third.plot(T, diff, color=colour, lw=1.4, label=f"fit − {label}")
+        third.axhline(0.0, color=st.MUTED, lw=0.8)
+        third.set_ylabel("difference / u")
+        third.legend(frameon=False, fontsize=8)
+    axes[-1].set_xlabel("T [K]")
+    for ax in axes:
         st.style_axes(ax)
     return fig
 

@@ -231,6 +231,7 @@ def plan_measurements(known, *, grid, points: int, properties=("viscosity",), un
         criterion = discrimination_at(k, rivals, cand_kinds, cand_T,
                                       relative_or_absolute(cand_kinds, u_by_kind, cand_T), pressure)
     chosen, value = select_design(criterion, prior, a_cand, points)
+    differences: dict = {}
     plan_points = tuple((str(cand_kinds[i]), float(cand_T[i])) for i in chosen)
     precisions = {"now": prior, "plan": design_precision(prior, a_cand, chosen),
                   "uniform": design_precision(prior, a_uni, np.arange(nu))}
@@ -246,16 +247,22 @@ def plan_measurements(known, *, grid, points: int, properties=("viscosity",), un
                             f"{', '.join(r.label for r in rivals)} reproduce{'s' if len(rivals) == 1 else ''} the "
                             f"fitted {k.label} curve there (a shape that contains the other, as Mie with n free "
                             "contains Lennard-Jones, can match it everywhere)")
+        for i, kind in enumerate(kinds):   # for the figure: how far apart a measurement would put them
+            differences[kind] = {r.label: (d[0, i * m:(i + 1) * m]).tolist() for r, (d, _, _) in
+                                 zip(rivals, criterion.rivals)}
         warnings += [f"the {r.label} potential matches the fit at the measured points with χ² = {r.match_chi2:.3g}"
                      for r in rivals if r.match_chi2 > len(k.measured)]
     rows = _rows(k, s, goal_values, goal_c, quantity_goals, precisions)
+    curves = _curves(kinds, grid, values[:, :nc], a_cand, relative_or_absolute(cand_kinds, u_by_kind, cand_T),
+                     precisions)
+    for kind, diff in differences.items():
+        curves[kind]["difference_over_u"] = diff
     inputs = {"range": grid.text, "range_K": [grid.low, grid.high], "candidates": int(m), "points": int(points),
               "properties": list(kinds), "uncertainty": {kd: u.describe() for kd, u in u_by_kind.items()},
               "pressure_Pa": float(pressure), "draws_used": int(len(k.draws)), "seed": int(k.seed),
               "existing_points": int(len(data)) if data is not None else 0}
     return PlanResult(points=plan_points, uniform=uniform, rows=rows, criterion=criterion.name,
                       goals=tuple(g.label for g in goal_list), values=scores,
-                      curves=_curves(kinds, grid, values[:, :nc], a_cand,
-                                     relative_or_absolute(cand_kinds, u_by_kind, cand_T), precisions), knowledge=k,
+                      curves=curves, knowledge=k,
                       inputs=inputs, warnings=tuple(warnings), uncertainty=u_by_kind)
 

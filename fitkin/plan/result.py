@@ -54,7 +54,8 @@ class PlanResult:
     criterion : what was optimised.   goals : the goal labels.   values : {"plan", "uniform",
         "now"} of the criterion (lower is better).
     curves : {kind: {"T": (m,), "value": (m,), "sd_now", "sd_plan", "sd_uniform"}} predictive
-        standard uncertainties over the candidate range (for the figure).
+        standard uncertainties over the candidate range (for the figure); with a discriminate
+        goal also "difference_over_u": {rival: (f_fit − f_rival)/u over the range}.
     knowledge : the :class:`~fitkin.plan.knowledge.Knowledge` planned from.
     inputs : what was asked (range, points, properties, uncertainty, pressure, draws, seed).
     warnings : plain-language findings.   verification : the ``--verify`` outcome, or None.
