@@ -125,7 +125,7 @@ def speed(folder: Path) -> None:
 
 def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
-    parser.add_argument("--replications", type=int, default=50, help="simulated data sets per design (default 50)")
+    parser.add_argument("--replications", type=int, default=200, help="simulated data sets per design (default 200)")
     args = parser.parse_args()
     with tempfile.TemporaryDirectory() as tmp:
         folder = Path(tmp)
