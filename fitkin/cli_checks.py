@@ -190,6 +190,7 @@ def check_arguments(args) -> None:
     """Raise :class:`UsageError` (or :class:`UnitError`) for an option value or combination that
     cannot work; fill in defaults that depend on other options."""
     check = {"check": _check_tables, "fit": _check_fit, "predict": _check_predict, "report": _check_report,
-             "demo": lambda a: _check_out(a, folder=True), "plan": _check_plan}.get(args.command)
+             "demo": lambda a: _check_out(a, folder=True), "plan": _check_plan,
+             "library": lambda a: _check_out(a, folder=True)}.get(args.command)
     if check is not None:
         check(args)

@@ -79,6 +79,8 @@ def test_out_empty_is_refused(lab, params, capsys):
     expect_user_error(capsys, "demo", "--out", "", fragments=["--out is empty"])
     expect_user_error(capsys, "plan", params, "--range", "300:400:50", "--points", "2", "--uncertainty", "0.3%",
                       "--out", "", fragments=["--out is empty"])
+    expect_user_error(capsys, "library", "export", params.parent / "lib.sqlite", "Ar", "--out", "",
+                      fragments=["--out is empty"])
 
 
 def test_predict_out_is_a_folder_even_with_force(params, tmp_path, capsys):
@@ -357,7 +359,7 @@ def test_samples_without_hash_are_refused(lab, tmp_path, capsys):
 
 
 @pytest.mark.parametrize("names, samples, fragment", [
-    (["sigma", "epsilon_over_k"], np.array([[3.4, 125.0]]), "1 draw(s)"),
+    (["sigma", "epsilon_over_k"], np.array([[3.4, 125.0]]), "holds 1 draw;"),
     (["sigma", "epsilon_over_k"], np.full((50, 2), [3.4, 125.0]), "is the same value"),
     (["sigma", "epsilon_over_k"], np.ones((50, 1)), "one column per parameter"),
     # one column that names itself: the band would leave out ε/k's uncertainty

@@ -23,7 +23,7 @@ from pathlib import Path
 import numpy as np
 
 from ..errors import FitkinError, ParameterFileError
-from ..formatting import format_interval
+from ..formatting import count_of, format_interval
 from ..io.atomic import write_bytes_atomic
 from .diagnostics import Diagnostics
 
@@ -264,7 +264,7 @@ def _check_draws(p: Path, names: list[str], samples: np.ndarray, recorded, entry
                                  "not be the fit's (sample again with fitkin fit --sample, or remove "
                                  "posterior.samples.file to use the covariance)")
     if len(samples) < MIN_DRAWS:
-        raise ParameterFileError(f"{p} holds {len(samples)} draw(s); a band needs at least {MIN_DRAWS} "
+        raise ParameterFileError(f"{p} holds {count_of(len(samples), 'draw')}; a band needs at least {MIN_DRAWS} "
                                  "(sample again with fitkin fit --sample)")
     if not np.all(np.isfinite(samples)):
         raise ParameterFileError(f"{p}: the samples contain values that are not finite numbers")
