@@ -172,6 +172,15 @@ def test_uncertainties_and_outliers(record):
         r["uncertainty_SI"] = 0.001 * r["measured_SI"]     # far too small on purpose
     findings = report_findings(rec, RecordModel(rec))
     assert any("more than 3 u" in f.text for f in findings if f.level == "warning")
+    # one point far from the fit is said in the singular
+    one = copy.deepcopy(record)
+    first = one["residuals"][0]
+    first["measured_SI"] = 1.01 * first["model_SI"]
+    first["uncertainty_SI"] = 0.001 * first["measured_SI"]    # 10 u from the fit
+    for r in one["residuals"][1:]:
+        r["uncertainty_SI"] = 0.5 * abs(r["measured_SI"])
+    texts = [f.text for f in report_findings(one, RecordModel(one)) if "u from the fit" in f.text]
+    assert len(texts) == 1 and texts[0].startswith("1 point lies more than 3 u"), texts
 
 
 def test_warnings_from_the_fit_are_shown(record):

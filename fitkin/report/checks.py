@@ -140,7 +140,8 @@ def report_findings(record: dict, model=None) -> list[Finding]:
                 far.append(f"{r['property']} at {r['T_K']:.1f} K ({r.get('source', '')}, row {r.get('row')}): "
                            f"{z:+.1f} u")
     if far:
-        findings.append(Finding("warning", f"{len(far)} point(s) lie more than {OUTLIER_Z:g} u from the fit: "
+        lie = "1 point lies" if len(far) == 1 else f"{len(far)} points lie"
+        findings.append(Finding("warning", f"{lie} more than {OUTLIER_Z:g} u from the fit: "
                                            + "; ".join(far[:6]) + (f" … (the first 6 of {len(far)} listed; all are "
                                                                    "in the parameter file's residuals)"
                                                                    if len(far) > 6 else "")))
