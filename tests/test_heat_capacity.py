@@ -105,7 +105,7 @@ def test_monatomic_heat_capacity():
     ("linear", (0.0,), None, 2, "not a positive"),
     ("linear", (1333.0, 667.0), (1, 2, 1), None, "degeneracies"),
     ("linear", (1333.0,), (1.5,), None, "whole numbers"),
-    ("nonlinear", (2358.6,), None, 2, "cannot be non-linear"),
+    ("nonlinear", (2358.6,), None, 2, "a molecule of 2 atoms cannot be non-linear"),
     ("bent", (2358.6,), None, None, "geometry"),
 ])
 def test_inconsistent_molecular_data(geometry, wavenumbers, degeneracies, atoms, fragment):

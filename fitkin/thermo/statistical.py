@@ -24,6 +24,7 @@ import numpy as np
 from scipy import constants
 
 from ..errors import GasError
+from ..formatting import count_of
 from .base import HeatCapacity, R, as_temperature, classical_rotational_cv
 
 __all__ = [
@@ -85,7 +86,8 @@ def vibrational_mode_count(atoms: int, geometry: str) -> int:
         return 3 * atoms - 5
     if geometry == "nonlinear":
         if atoms < 3:
-            raise GasError(f"a molecule of {atoms} atom(s) cannot be non-linear (a diatomic molecule is linear)")
+            raise GasError(f"a molecule of {count_of(atoms, 'atom')} cannot be non-linear (a diatomic molecule is "
+                           "linear)")
         return 3 * atoms - 6
     classical_rotational_cv(geometry)  # raises the unknown-geometry error
     raise AssertionError("unreachable")
