@@ -172,6 +172,8 @@ GAS_CO2 = 'name = "co2"\nformula = "CO2"\n[heat_capacity]\ntemperature = [300, 4
     (["--range", "200:1000:10", "--goal", "everything"], "unknown --goal 'everything'"),
     (["--range", "200:1000"], "--range expects"),
     (["--range", "200:1000:10", "--uncertainty", "150%"], "between 0 and 100 %"),
+    (["--range", "200:1000:10", "--draws", "1"], "--draws must be a whole number from 2"),
+    (["--range", "200:1000:10", "--verify", "0"], "--verify takes the number of simulated data sets"),
 ])
 def test_cli_plan_refuses_bad_inputs_with_one_line(saved_fit, capsys, extra, fragment):
     args = ["plan", str(saved_fit), "--uncertainty", "0.3%", "--draws", "10"]

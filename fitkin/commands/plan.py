@@ -14,7 +14,7 @@ from ..inference.fitdata import FitData
 from ..inference.priors import parse_prior_assignment
 from ..plan import knowledge_from_fit, knowledge_from_prior, plan_measurements
 from ..plan.output import write_plan
-from ..plan.verify import verify_plan
+from ..plan.verify import check_replications, verify_plan
 from ..units import parse_quantity
 from ..workflow import parse_potential_choices
 from .fit import gas_from_args
@@ -58,6 +58,8 @@ def _existing(args):
 def run_plan(args, out) -> int:
     if args.points is None:
         raise UsageError("--points is needed: how many new measurements to plan, e.g. --points 6")
+    if args.verify is not None:
+        check_replications(args.verify)   # before the work, not after it
     known = knowledge_from_args(args)
     pressure = parse_quantity(args.pressure, "Pa", name="--pressure")
     result = plan_measurements(known, grid=args.range, points=args.points,
@@ -65,7 +67,7 @@ def run_plan(args, out) -> int:
                                uncertainty=args.uncertainty or None, goals=args.goal or ["parameters"],
                                pressure=pressure,
                                data=_existing(args), draws=args.draws, seed=args.seed)
-    if args.verify:
+    if args.verify is not None:
         result = verify_plan(result, replications=args.verify, seed=args.seed)
     print(result.table(), file=out)
     if args.out:

@@ -28,10 +28,12 @@ from ..inference.posterior import posterior_draws
 from ..inference.priors import Prior, Uniform
 from ..species import Gas
 
-__all__ = ["Knowledge", "knowledge_from_fit", "knowledge_from_prior", "DEFAULT_DRAWS"]
+__all__ = ["Knowledge", "knowledge_from_fit", "knowledge_from_prior", "check_draws", "DEFAULT_DRAWS", "MAX_DRAWS"]
 
 #: Parameter draws the criterion is averaged over (a plan's cost grows linearly with it).
 DEFAULT_DRAWS = 100
+#: Most parameter draws one plan averages over (memory grows with draws × candidates).
+MAX_DRAWS = 10000
 #: Draws used to compute the mean and variance of a prior (Monte Carlo, seeded).
 _PRIOR_MOMENT_DRAWS = 20000
 
@@ -85,6 +87,12 @@ class Knowledge:
                          self.source, self.label, self.seed, self.measured, self.description, self.notes)
 
 
+def check_draws(draws) -> None:
+    """UsageError unless ``draws`` is a whole number from 2 to :data:`MAX_DRAWS`."""
+    if isinstance(draws, bool) or not (isinstance(draws, (int, np.integer)) and 2 <= draws <= MAX_DRAWS):
+        raise UsageError(f"--draws must be a whole number from 2 to {MAX_DRAWS}, got {draws!r}")
+
+
 def _measured_points(record: dict) -> tuple:
     """((T K, kind, u SI), ...) of the fit's points; u is NaN where the file stated none."""
     out = []
@@ -101,6 +109,7 @@ def knowledge_from_fit(fit, *, draws: int = DEFAULT_DRAWS, seed: int = 0) -> Kno
     Uses the posterior samples beside the file when the fit was sampled, else Gaussian draws
     from its least-squares covariance. ``draws`` of them are used (chosen with ``seed``).
     """
+    check_draws(draws)
     fitted = fit if isinstance(fit, FittedGas) else load_parameters(fit)
     record, model = fitted.record, fitted.forward_model
     values = {k: float(v["value"]) for k, v in record["parameters"].items()}
@@ -188,6 +197,7 @@ def knowledge_from_prior(gas: Gas, choice: PotentialChoice, *, priors: dict | No
     (:data:`~fitkin.inference.leastsq.SHAPE_BOUNDS`). The internal-energy conductivity model
     is fitkin's default for the gas with its parameters held at their defaults.
     """
+    check_draws(draws)
     given = dict(priors or {})
     critical = critical if critical is not None else gas.critical
     base = corresponding_states_priors(critical) if critical is not None else {}

@@ -19,7 +19,7 @@ from .design import design_precision, select_design
 from .discriminate import discrimination_at, rivals_for
 from .fisher import Predictor, information_vectors, relative_or_absolute
 from .fisher import points as prediction_points
-from .knowledge import DEFAULT_DRAWS, Knowledge, knowledge_from_fit
+from .knowledge import DEFAULT_DRAWS, Knowledge, check_draws, knowledge_from_fit
 from .result import PlanResult, UncertaintyRow
 from .specs import CandidateGrid, Goal, Uncertainty, kind_name, parse_goal, parse_range, parse_uncertainty
 
@@ -170,8 +170,7 @@ def plan_measurements(known, *, grid, points: int, properties=("viscosity",), un
         raise UsageError(f"--points must be a whole number of at least 1, got {points!r}")
     if points > MAX_POINTS:
         raise UsageError(f"--points {points}: at most {MAX_POINTS} new points in one plan")
-    if not (isinstance(draws, (int, np.integer)) and draws >= 2):
-        raise UsageError(f"draws must be a whole number of at least 2, got {draws!r}")
+    check_draws(draws)
     k = _knowledge(known, draws, seed)
     grid = grid if isinstance(grid, CandidateGrid) else parse_range(grid)
     props = [properties] if isinstance(properties, str) else list(properties)

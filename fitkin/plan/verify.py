@@ -22,7 +22,7 @@ from .fisher import Predictor, points
 from .result import PlanResult
 from .specs import parse_goal
 
-__all__ = ["verify_plan", "Verification", "MAX_REPLICATIONS"]
+__all__ = ["verify_plan", "check_replications", "Verification", "MAX_REPLICATIONS"]
 
 MAX_REPLICATIONS = 10000
 
@@ -68,12 +68,17 @@ def _fit(predictor: Predictor, y, u, center, prior_root, start):
     return out.x, bool(out.success)
 
 
-def verify_plan(result: PlanResult, *, replications: int, seed: int = 0) -> PlanResult:
-    """``result`` with its :class:`Verification` from ``replications`` simulated data sets per design."""
+def check_replications(replications) -> None:
+    """UsageError unless ``replications`` is a whole number from 1 to :data:`MAX_REPLICATIONS`."""
     if isinstance(replications, bool) or not isinstance(replications, (int, np.integer)) \
             or not 1 <= replications <= MAX_REPLICATIONS:
         raise UsageError(f"--verify takes the number of simulated data sets, 1 to {MAX_REPLICATIONS}, "
                          f"got {replications!r}")
+
+
+def verify_plan(result: PlanResult, *, replications: int, seed: int = 0) -> PlanResult:
+    """``result`` with its :class:`Verification` from ``replications`` simulated data sets per design."""
+    check_replications(replications)
     k = result.knowledge
     u_by_kind = result.uncertainty
     pressure = result.inputs["pressure_Pa"]
