@@ -32,9 +32,24 @@ def test_non_ascii_digits_go_the_cell_by_cell_way():
     assert parse_number("\u0663", decimal_comma=False) == 3.0
 
 
-def test_workbook_numbers_and_decimal_commas_are_not_plain():
+def test_workbook_numbers_are_not_plain():
     assert parse_plain_column([300.0, "1.5"], decimal_comma=False) is None
-    assert parse_plain_column(["1,5"], decimal_comma=True) is None
+
+
+COMMAS = ["300,15", " 1,5", "2 ", "+,5", "-3,", "1e5", "1,25E-03", "1,000", ""]
+
+
+def test_decimal_comma_column_matches_parse_number():
+    values = parse_plain_column(COMMAS, decimal_comma=True)
+    expected = [np.nan if not c.strip() else parse_number(c, decimal_comma=True) for c in COMMAS]
+    np.testing.assert_array_equal(values, np.array(expected))
+
+
+@pytest.mark.parametrize("bad", ["1.5", "1,5,3", "nan", "1_0"])
+def test_decimal_comma_column_with_anything_else_goes_cell_by_cell(bad):
+    assert parse_plain_column(COMMAS + [bad], decimal_comma=True) is None
+    with pytest.raises(CellValueError):
+        parse_number(bad, decimal_comma=True)
 
 
 def _big(tmp_path, n, edit=None):

@@ -58,10 +58,6 @@ class TableAssembler:
         self._columns: dict[int, list] = {}
         self._width_range: tuple[int, int] | None = None
 
-    def cell(self, i: int, index: int):
-        cells = self.body[i][1]
-        return cells[index] if index < len(cells) else ""
-
     def column(self, index: int) -> list:
         """The cells of column ``index`` of every data row ('' where a row is shorter)."""
         found = self._columns.get(index)
@@ -72,6 +68,16 @@ class TableAssembler:
                 found = [cells[index] if index < len(cells) else "" for _, cells in self.body]
             self._columns[index] = found
         return found
+
+    def _release_cells(self) -> None:
+        """Drop the rows once the numbers are parsed, keeping the cells of the columns still
+        read (the source labels, and the parsed columns for the messages about blank cells):
+        a big table's cells are most of the memory its reading takes."""
+        keep = {s.index for s in self.specs if s.role in ("quantity", "uncertainty", "source")}
+        for index in keep:
+            self.column(index)
+        self._columns = {i: c for i, c in self._columns.items() if i in keep}
+        self.body = None
 
     @property
     def _widths(self) -> tuple[int, int]:
@@ -89,6 +95,8 @@ class TableAssembler:
         if not all(has_no_comma(c) for c in columns):
             decimal_comma, _ = detect_decimal_comma(c for column in columns for c in column)
         raw = {s.index: self._parse_column(s, decimal_comma) for s in numeric}
+        del columns
+        self._release_cells()
         quantities: dict[str, ColumnSpec] = {}
         for s in self.specs:
             if s.role == "quantity":

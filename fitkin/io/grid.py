@@ -82,6 +82,7 @@ def _split_text(text: str, path: str) -> CellGrid:
     else:
         grid.delimiter = detect_delimiter([line for _, line in content[:_SAMPLE_ROWS]])
     if '"' not in text:
+        del lines  # the text of each line lives on in content
         fast = _split_unquoted(content, grid.delimiter, text)
         if fast is not None:
             grid.rows = fast
@@ -135,6 +136,8 @@ def _split_unquoted(content: list[tuple[int, str]], delimiter: str, text: str) -
         return None
     sep = re.escape(delimiter)
     if not re.search(rf"^[^\S\n]*{sep}(?:[^\S\n]|{sep})*$", text, re.MULTILINE):
+        content.clear()  # the caller's lines are no longer needed: freed before the rows are made
+        del lines
         return list(zip(numbers, split))
     # a line of only separators and blanks (';;;' from a spreadsheet export) is skipped
     return [(number, cells) for (number, line), cells in zip(content, split)

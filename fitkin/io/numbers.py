@@ -120,21 +120,24 @@ def has_no_comma(cells) -> bool:
 
 def parse_plain_column(cells, *, decimal_comma: bool) -> np.ndarray | None:
     """Every cell of a column at once, NaN for blank ones, when the column is plain: text
-    cells in ASCII, decimal points, no comma or underscore anywhere, every number finite.
+    cells in ASCII, no underscore, only the file's decimal separator (no comma in a
+    decimal-point file, no point in a decimal-comma one), every number finite.
 
     For such cells :func:`parse_number` gives the same values (float() accepts nothing
     else there that the patterns refuse: the only other forms are 'nan' and 'inf', caught
-    as not finite). Returns None for anything else; the caller then parses cell by cell and
-    names each bad cell.
+    as not finite; a cell with two commas becomes one with two points, which float()
+    refuses). Returns None for anything else; the caller then parses cell by cell and names
+    each bad cell.
     """
-    if decimal_comma:
-        return None
     try:
         joined = "".join(cells)
     except TypeError:  # numbers among the cells (a workbook)
         return None
-    if not joined.isascii() or "," in joined or "_" in joined:
+    other = "." if decimal_comma else ","  # a cell in the other style is an error, named cell by cell
+    if not joined.isascii() or other in joined or "_" in joined:
         return None
+    if decimal_comma and "," in joined:
+        cells = [c.replace(",", ".") for c in cells]
     try:
         values = np.array(cells, dtype=float)  # every cell filled: the common case
     except ValueError:

@@ -126,6 +126,8 @@ def _read_table(data: bytes, file: str, sheet, overrides, pressure_limit, defaul
     if not body:
         raise InputError("the table has a header but no data rows", file=file, row=header_row)
     builder = TableAssembler(file, specs, body, pressure_limit, default_pressure)
+    notes = grid.notes
+    del grid, body  # the assembler drops the cells once it has parsed them
     builder.run()
     problems += builder.problems
     if problems:
@@ -136,7 +138,7 @@ def _read_table(data: bytes, file: str, sheet, overrides, pressure_limit, defaul
         path=file,
         sha256=hashlib.sha256(data).hexdigest(),
         series=tuple(builder.series),
-        warnings=tuple(grid.notes + warnings + builder.warnings),
+        warnings=tuple(notes + warnings + builder.warnings),
         columns=tuple(header_cells),
     )
 
