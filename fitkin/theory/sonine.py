@@ -103,8 +103,8 @@ def _evaluate(omega, pairs, t_star, many=None):
             raise
         except Exception as exc:
             raise PotentialError(f"the collision-integral provider failed: {exc}") from exc
-        bad = ~(np.isfinite(values) & (values > 0.0))
-        if bad.any():
+        if not (values.min(initial=np.inf) > 0.0 and values.max(initial=0.0) < np.inf):  # NaN fails too
+            bad = ~(np.isfinite(values) & (values > 0.0))
             l, s = pairs[int(np.flatnonzero(bad.any(axis=1))[0])]
             raise PotentialError(
                 f"the collision-integral provider returned a non-positive or non-finite "
@@ -135,10 +135,11 @@ def _correction(problem, omega, T_star, order, omega_many=None):
         return np.ones_like(t_star)
     values = _evaluate(omega, pairs, t_star, omega_many)          # (npairs, points)
     n = coefficients.shape[0]
-    m = (coefficients.reshape(n * n, -1) @ values).reshape(n, n, -1)   # (N, N, points)
-    f = _first_over_inverse(m)
+    def matrix():
+        return (coefficients.reshape(n * n, -1) @ values).reshape(n, n, -1)   # (N, N, points)
+    f = _first_over_inverse(matrix())
     if f is None:  # a zero pivot: fall back to LU with partial pivoting
-        f = _solved(np.moveaxis(m, -1, 0))
+        f = _solved(np.moveaxis(matrix(), -1, 0))
     return f.reshape(t_star.shape)
 
 
@@ -146,9 +147,11 @@ def _first_over_inverse(m):
     """M₀₀ (M⁻¹)₀₀ for each point of m (N, N, points), by eliminating the trailing rows and
     columns: what is left in place of M₀₀ is the Schur complement 1/(M⁻¹)₀₀. The bracket
     matrix is symmetric positive definite for a real potential, so no pivoting is needed;
-    None when a pivot is zero or not finite (the caller then solves with pivoting)."""
+    None when a pivot is zero or not finite (the caller then solves with pivoting).
+    ``m`` is overwritten (the elimination works in place, to spare a copy per point)."""
     n = m.shape[0]
-    a = [[m[i, j].copy() for j in range(n)] for i in range(n)]
+    first = m[0, 0].copy()
+    a = [[m[i, j] for j in range(n)] for i in range(n)]  # views into m
     for k in range(n - 1, 0, -1):
         pivot = a[k][k]
         if not np.all(np.isfinite(pivot) & (pivot != 0.0)):
@@ -160,7 +163,7 @@ def _first_over_inverse(m):
     schur = a[0][0]
     if not np.all(np.isfinite(schur) & (schur != 0.0)):
         return None
-    return m[0, 0] / schur
+    return first / schur
 
 
 def _solved(m):
