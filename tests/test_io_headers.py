@@ -149,6 +149,13 @@ def test_prediction_table_columns_that_are_not_measurements_are_one_warning(tmp_
     assert sorted(s.kind for s in table.series) == ["self_diffusion", "viscosity"]
     assert list(table.warnings) == [f"{tmp_path / 't.csv'}: the band limits (columns C, D, F, G) and the 'extrapolated' "
                               "flag (column H) of a fitkin prediction table are not measured data; left out"]
+    mixture = ("T [K],viscosity [uPa s],viscosity lower 0.9 [uPa s],binary diffusion with He at 101325 Pa [cm^2/s],"
+               "mixture viscosity x(Ar) = 0.5 [uPa s],extrapolated\n300,22.7,22.6,0.7,21.0,no\n")
+    table = read_table(write(tmp_path, "m.csv", mixture))
+    assert [s.kind for s in table.series] == ["viscosity"]
+    assert list(table.warnings) == [f"{tmp_path / 'm.csv'}: the band limits (column C), the mixture predictions "
+                                    "(columns D, E) and the 'extrapolated' flag (column F) of a fitkin prediction "
+                                    "table are not measured data; left out"]
     table = read_table(write(tmp_path, "f.csv", "T [K],viscosity [uPa s],extrapolated\n300,22.7,no\n"))
     assert list(table.warnings) == [f"{tmp_path / 'f.csv'}: the 'extrapolated' flag (column C) of a fitkin prediction "
                               "table is not measured data; left out"]

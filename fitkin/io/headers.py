@@ -34,6 +34,8 @@ _AT_PRESSURE = re.compile(r"^(?P<name>.+?)\s+at\s+(?P<pressure>[-+−]?[\d.].*)$
 _BAND_LIMIT = re.compile(r"^(?P<name>.+?)\s+(?:lower|upper)\s+(?:0?\.\d+|0|1)$", re.IGNORECASE)
 #: Columns of a prediction table that are not measurements (besides the band limits).
 _PREDICTION_FLAGS = ("extrapolated",)
+#: The mixture columns of a prediction table made with --with: of a pair, not of this gas.
+_MIXTURE_COLUMN = re.compile(r"^(?:binary diffusion with .+|mixture viscosity x\(.+\) = .+)$", re.IGNORECASE)
 
 
 @dataclass(frozen=True)
@@ -253,20 +255,22 @@ def _name_at_pressure(name: str, where: dict, problems: list) -> tuple[QuantityK
 def _not_measured_warning(file: str, specs: list[ColumnSpec]) -> str:
     """One line for the band limits and flags of a prediction table read back as input."""
     flags = [s for s in specs if normalize_name(split_header(s.header)[0]) in _PREDICTION_FLAGS]
-    limits = [s for s in specs if s not in flags]
+    mixture = [s for s in specs if _MIXTURE_COLUMN.match(split_header(s.header)[0])]
+    limits = [s for s in specs if s not in flags and s not in mixture]
     parts = []
-    if limits:
-        parts.append(f"the band limits (column{'s' if len(limits) > 1 else ''} "
-                     f"{', '.join(s.letter for s in limits)})")
+    for group, what in ((limits, "band limits"), (mixture, "mixture predictions")):
+        if group:
+            parts.append(f"the {what} (column{'s' if len(group) > 1 else ''} {', '.join(s.letter for s in group)})")
     for s in flags:
         parts.append(f"the '{s.header}' flag (column {s.letter})")
-    verb = "is" if len(parts) == 1 and not limits else "are"
-    return f"{file}: {' and '.join(parts)} of a fitkin prediction table {verb} not measured data; left out"
+    verb = "is" if len(parts) == 1 and not (limits or mixture) else "are"
+    listed = parts[0] if len(parts) == 1 else ", ".join(parts[:-1]) + " and " + parts[-1]
+    return f"{file}: {listed} of a fitkin prediction table {verb} not measured data; left out"
 
 
 def _is_prediction_extra(name: str) -> bool:
     """A band-limit column or the extrapolated flag of a fitkin prediction table."""
-    if normalize_name(name) in _PREDICTION_FLAGS:
+    if normalize_name(name) in _PREDICTION_FLAGS or _MIXTURE_COLUMN.match(name.strip()):
         return True
     match = _BAND_LIMIT.match(name.strip())
     if not match:
