@@ -146,6 +146,42 @@ def _curves(kinds, grid, values, a, u_fun, precisions) -> dict:
     return out
 
 
+def _precisions(prior, a_cand, chosen, a_uni) -> dict:
+    """Per-draw precisions now, after the chosen candidates and after the uniform points."""
+    return {"now": prior, "plan": design_precision(prior, a_cand, chosen),
+            "uniform": design_precision(prior, a_uni, np.arange(a_uni.shape[1]))}
+
+
+def _search(k, goal, goal_c, prior, a_cand, a_uni, cand_kinds, cand_T, uniform, u_by_kind, n, pressure, grid):
+    """(criterion, chosen indices, criterion values {"now", "plan", "uniform"}, {kind: {rival:
+    (f − f_rival)/u}} for the figure, warnings) of the design search for ``goal``."""
+    if goal.form in ("parameters", "quantity"):
+        criterion = DOptimal() if goal.form == "parameters" else GoalVariance(goal_c)
+        chosen, _ = select_design(criterion, prior, a_cand, n)
+        precisions = _precisions(prior, a_cand, chosen, a_uni)
+        return criterion, chosen, {name: criterion.value(np.linalg.inv(P)) for name, P in precisions.items()}, {}, []
+    rivals = rivals_for(k, goal, pressure)
+    criterion = discrimination_at(k, rivals, cand_kinds, cand_T, relative_or_absolute(cand_kinds, u_by_kind, cand_T),
+                                  pressure)
+    chosen, value = select_design(criterion, prior, a_cand, n)
+    uni_kinds, uni_T = [kd for kd, _ in uniform], [t for _, t in uniform]
+    uni = discrimination_at(k, rivals, uni_kinds, uni_T, relative_or_absolute(uni_kinds, u_by_kind, uni_T), pressure)
+    scores = {"plan": value, "uniform": uni.design_value(np.arange(len(uniform))), "now": 0.0}
+    notes = []
+    if -value < 1e-6:
+        notes.append(f"no temperature in {grid.low:g}–{grid.high:g} K tells the shapes apart: "
+                     f"{', '.join(r.label for r in rivals)} reproduce{'s' if len(rivals) == 1 else ''} the "
+                     f"fitted {k.label} curve there (a shape that contains the other, as Mie with n free "
+                     "contains Lennard-Jones, can match it everywhere)")
+    notes += [f"the {r.label} potential matches the fit at the measured points with χ² = {r.match_chi2:.3g}"
+              for r in rivals if r.match_chi2 > len(k.measured)]
+    m = len(grid.temperatures)
+    kinds = list(dict.fromkeys(cand_kinds))
+    differences = {kind: {r.label: d[0, i * m:(i + 1) * m].tolist() for r, (d, _, _) in zip(rivals, criterion.rivals)}
+                   for i, kind in enumerate(kinds)}
+    return criterion, chosen, scores, differences, notes
+
+
 def plan_measurements(known, *, grid, points: int, properties=("viscosity",), uncertainty=None, goals=None,
                       pressure: float = 101325.0, data: FitData | None = None, draws: int = DEFAULT_DRAWS,
                       seed: int = 0) -> PlanResult:
@@ -210,7 +246,7 @@ def plan_measurements(known, *, grid, points: int, properties=("viscosity",), un
     values, J = values[keep], J[keep]
     s = k.sd
     Js = J * s[None, None, :]
-    nc, nu = len(cand_T), len(uniform)
+    nc, nu = len(cand_T), len(uniform)  # the points are: candidates, uniform design, goals
     u_fun = relative_or_absolute(pts.kind, u_by_kind, pts.temperature)
     a_all = information_vectors(values, Js, u_fun)
     a_cand, a_uni = a_all[:, :nc], a_all[:, nc:nc + nu]
@@ -221,36 +257,11 @@ def plan_measurements(known, *, grid, points: int, properties=("viscosity",), un
     goal_c = goal_J / goal_scale[:, :, None]
     corr = k.covariance / np.outer(s, s)
     prior = np.linalg.inv(corr)[None] + _existing_information(k, data, np.ones(len(k.draws), bool), s)
-    if goal_list[0].form == "parameters":
-        criterion = DOptimal()
-    elif goal_list[0].form == "quantity":
-        criterion = GoalVariance(goal_c)
-    else:
-        rivals = rivals_for(k, goal_list[0], pressure)
-        criterion = discrimination_at(k, rivals, cand_kinds, cand_T,
-                                      relative_or_absolute(cand_kinds, u_by_kind, cand_T), pressure)
-    chosen, value = select_design(criterion, prior, a_cand, points)
-    differences: dict = {}
+    criterion, chosen, scores, differences, notes = _search(k, goal_list[0], goal_c, prior, a_cand, a_uni, cand_kinds,
+                                                            cand_T, uniform, u_by_kind, points, pressure, grid)
+    warnings += notes
     plan_points = tuple((str(cand_kinds[i]), float(cand_T[i])) for i in chosen)
-    precisions = {"now": prior, "plan": design_precision(prior, a_cand, chosen),
-                  "uniform": design_precision(prior, a_uni, np.arange(nu))}
-    if isinstance(criterion, (DOptimal, GoalVariance)):
-        scores = {name: criterion.value(np.linalg.inv(P)) for name, P in precisions.items()}
-    else:
-        uni_kinds = [kd for kd, _ in uniform]
-        uni = discrimination_at(k, rivals, uni_kinds, [t for _, t in uniform],
-                                relative_or_absolute(uni_kinds, u_by_kind, [t for _, t in uniform]), pressure)
-        scores = {"plan": value, "uniform": uni.design_value(np.arange(nu)), "now": 0.0}
-        if -value < 1e-6:
-            warnings.append(f"no temperature in {grid.low:g}–{grid.high:g} K tells the shapes apart: "
-                            f"{', '.join(r.label for r in rivals)} reproduce{'s' if len(rivals) == 1 else ''} the "
-                            f"fitted {k.label} curve there (a shape that contains the other, as Mie with n free "
-                            "contains Lennard-Jones, can match it everywhere)")
-        for i, kind in enumerate(kinds):   # for the figure: how far apart a measurement would put them
-            differences[kind] = {r.label: (d[0, i * m:(i + 1) * m]).tolist() for r, (d, _, _) in
-                                 zip(rivals, criterion.rivals)}
-        warnings += [f"the {r.label} potential matches the fit at the measured points with χ² = {r.match_chi2:.3g}"
-                     for r in rivals if r.match_chi2 > len(k.measured)]
+    precisions = _precisions(prior, a_cand, chosen, a_uni)
     rows = _rows(k, s, goal_values, goal_c, quantity_goals, precisions)
     curves = _curves(kinds, grid, values[:, :nc], a_cand, relative_or_absolute(cand_kinds, u_by_kind, cand_T),
                      precisions)
@@ -261,7 +272,6 @@ def plan_measurements(known, *, grid, points: int, properties=("viscosity",), un
               "pressure_Pa": float(pressure), "draws_used": int(len(k.draws)), "seed": int(k.seed),
               "existing_points": int(len(data)) if data is not None else 0}
     return PlanResult(points=plan_points, uniform=uniform, rows=rows, criterion=criterion.name,
-                      goals=tuple(g.label for g in goal_list), values=scores,
-                      curves=curves, knowledge=k,
+                      goals=tuple(g.label for g in goal_list), values=scores, curves=curves, knowledge=k,
                       inputs=inputs, warnings=tuple(warnings), uncertainty=u_by_kind)
 
