@@ -98,7 +98,8 @@ def main() -> None:
             write_table(table, n)
         out = work / f"fit-{n}"
         t_check, m_check, _ = run(["check", str(table)])
-        t_fit, m_fit, status = run(["fit", "--formula", "Ar", "--out", str(out), "--force", "--no-report", str(table)])
+        shutil.rmtree(out, ignore_errors=True)  # so that only this run's outputs are measured
+        t_fit, m_fit, status = run(["fit", "--formula", "Ar", "--out", str(out), "--no-report", str(table)])
         params = out / "parameters.json"
         size = params.stat().st_size if status == 0 and params.exists() else float("nan")
         sidecars = [p for p in out.glob("residuals*") if p.is_file()] if status == 0 else []
