@@ -11,6 +11,8 @@ The main entry points, importable from the top level:
 * :func:`run_fit_job` — the whole ``fitkin fit`` workflow (several shapes, comparison,
   sampling, saving) in one call; returns a :class:`FitJobResult`.
 * :func:`load_parameters` — a saved fit, for reuse downstream.
+* :func:`plan_measurements` — which temperatures to measure next (``fitkin plan``); returns
+  a :class:`fitkin.plan.PlanResult`.
 * :func:`run_batch` — every job of a batch manifest (``fitkin batch``).
 * :func:`open_library` — the parameter library (SQLite): ``open_library("fits.sqlite")["argon"]``.
 """
@@ -38,6 +40,7 @@ _LAZY = {
     "run_fit_job": "fitkin.workflow",
     "FitOptions": "fitkin.workflow",
     "FitJobResult": "fitkin.workflow",
+    "plan_measurements": "fitkin.plan",
     "run_batch": "fitkin.batch",
     "open_library": "fitkin.library",
 }
