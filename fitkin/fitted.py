@@ -281,4 +281,7 @@ class FittedGas:
 
 def load_parameters(path) -> FittedGas:
     """Read a parameter file written by ``fitkin fit`` and return a :class:`FittedGas`."""
+    if not isinstance(path, (str, Path)) and not hasattr(path, "__fspath__"):
+        raise ParameterFileError(f"a parameter file name must be text or a path, got {type(path).__name__} "
+                                 f"{path!r:.60} (e.g. load_parameters('fit-argon/parameters.json'))")
     return FittedGas(read_parameter_file(path), path=str(path))

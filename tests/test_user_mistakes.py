@@ -13,10 +13,12 @@ import pytest
 from fitkin.cli import main
 from fitkin.errors import FitkinError, OutputError, ParameterFileError, UsageError
 from fitkin.fitted import load_parameters
+from fitkin.inference.leastsq import fit_least_squares
 from fitkin.io import atomic
-from fitkin.potentials import LennardJones
+from fitkin.potentials import ExpSix, LennardJones, Mie
 from fitkin.species import Gas
 from fitkin.theory.transport import TransportModel
+from fitkin.workflow import run_fit_job
 
 
 def run(capsys, *argv):
@@ -393,3 +395,20 @@ def test_fitted_gas_from_a_damaged_record(params):
         FittedGas(bad)
     with pytest.raises(ParameterFileError):
         FittedGas("not a record")
+
+
+@pytest.mark.parametrize("call, fragment", [
+    (lambda: load_parameters(None), "a parameter file name must be text or a path"),
+    (lambda: load_parameters({}), "a parameter file name must be text or a path"),
+    (lambda: TransportModel(potential="lj"), "potential must be a fitkin potential"),
+    (lambda: TransportModel().viscosity("abc", 0.04, 3.4e-10, 120.0), "temperatures must be numbers in K"),
+    (lambda: Mie(n="a"), "Mie repulsive exponent n must be a number"),
+    (lambda: ExpSix(alpha=None), "exp-6 steepness alpha must be a number"),
+    (lambda: fit_least_squares(None, Gas.from_formula("Ar")), "data must be a FitData"),
+    (lambda: run_fit_job(None, Gas.from_formula("Ar"), out_dir="/nonexistent/o"), "expected a list of measured tables"),
+    (lambda: run_fit_job(["visc.csv"], Gas.from_formula("Ar"), out_dir="/nonexistent/o"),
+     "read the files with fitkin.read_tables"),
+])
+def test_more_api_mistakes_are_fitkin_errors(call, fragment):
+    with pytest.raises(FitkinError, match=re.escape(fragment)):
+        call()

@@ -21,7 +21,7 @@ import numpy as np
 
 from ..errors import FitError
 from ..formatting import count_of
-from ..measurements import PROPERTY_KINDS, SIGNED_KINDS
+from ..measurements import PROPERTY_KINDS, SIGNED_KINDS, MeasuredTable
 
 __all__ = ["FitData"]
 
@@ -61,6 +61,16 @@ class FitData:
         if unknown:
             raise FitError(f"cannot fit property {', '.join(sorted(unknown))}; "
                            f"fitkin fits {', '.join(PROPERTY_KINDS)}")
+        if isinstance(tables, MeasuredTable):
+            tables = [tables]
+        if tables is None or isinstance(tables, (str, bytes)) or not hasattr(tables, "__iter__"):
+            raise FitError(f"expected a list of measured tables, got {type(tables).__name__} {tables!r:.60} "
+                           "(read them with fitkin.read_tables(['viscosity.csv', ...]))")
+        tables = list(tables)
+        wrong = [t for t in tables if not isinstance(t, MeasuredTable)]
+        if wrong:
+            raise FitError(f"expected measured tables, got {type(wrong[0]).__name__} {wrong[0]!r:.60} "
+                           "(read the files with fitkin.read_tables(['viscosity.csv', ...]) and pass what it returns)")
         parts = []
         for t in tables:
             for s in t.series:

@@ -123,6 +123,9 @@ def fit_least_squares(data: FitData, gas: Gas, potential=None, *, free_shape=(),
     -------
     FitResult with σ in Å and ε/k in K.
     """
+    if not isinstance(data, FitData):
+        raise FitError(f"data must be a FitData, got {type(data).__name__} (make it with "
+                       "FitData.from_tables(fitkin.read_tables([...])))")
     if potential is None:
         potential = LennardJones()
     fixed = dict(fixed or {})

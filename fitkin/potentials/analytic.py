@@ -79,8 +79,8 @@ class Mie(Potential):
     name = "mie"
 
     def __init__(self, n: float = 12.0, m: float = 6.0):
-        n = float(n)
-        m = float(m)
+        n = _shape_number(n, "Mie repulsive exponent n")
+        m = _shape_number(m, "Mie attractive exponent m")
         if not (math.isfinite(n) and math.isfinite(m)):
             raise PotentialError(f"Mie exponents must be finite numbers, got n={n}, m={m}")
         if not m > 3.0:
@@ -110,6 +110,14 @@ class Mie(Potential):
 
     def describe(self) -> str:
         return f"Mie {self.n:g}-{self.m:g}"
+
+
+def _shape_number(value, what: str) -> float:
+    """A shape parameter as a float, or a :class:`PotentialError` naming it."""
+    try:
+        return float(value)
+    except (TypeError, ValueError):
+        raise PotentialError(f"{what} must be a number, got {value!r}") from None
 
 
 class LennardJones(Mie):
@@ -164,7 +172,7 @@ class ExpSix(Potential):
     name = "exp6"
 
     def __init__(self, alpha: float = 14.0):
-        alpha = float(alpha)
+        alpha = _shape_number(alpha, "exp-6 steepness alpha")
         if not (math.isfinite(alpha) and 9.0 <= alpha <= 40.0):
             raise PotentialError(
                 f"exp-6 steepness alpha must be between 9 and 40, got {alpha:g} (below about 8.1 "

@@ -14,8 +14,8 @@ from scipy import constants
 
 from ..collision import collision_table
 from ..collision.correlations import NEUFELD_RANGE, neufeld_omega11, neufeld_omega22
-from ..errors import FitkinError, OutOfRangeError
-from ..potentials import LennardJones, potential_record
+from ..errors import FitkinError, OutOfRangeError, PotentialError, UsageError
+from ..potentials import LennardJones, Potential, potential_record
 from . import chapman_enskog as ce
 from . import sonine
 from .sonine import MAX_ORDER
@@ -48,6 +48,9 @@ class TransportModel:
                               f"expected one of {', '.join(COLLISION_SOURCES)}")
         if self.potential is None:
             object.__setattr__(self, "potential", LennardJones())
+        elif not isinstance(self.potential, Potential):
+            raise PotentialError(f"potential must be a fitkin potential such as LennardJones() or Mie(14), got "
+                                 f"{type(self.potential).__name__} {self.potential!r:.40}")
         if isinstance(self.order, bool) or not isinstance(self.order, int) or not 1 <= self.order <= MAX_ORDER:
             raise FitkinError(f"Sonine order must be a whole number from 1 to {MAX_ORDER} (the orders whose "
                               f"brackets and collision integrals fitkin has), got {self.order!r}")
@@ -111,7 +114,11 @@ class TransportModel:
     # -- properties ----------------------------------------------------------------------
     @staticmethod
     def reduced_temperature(T, epsilon_over_k):
-        return np.asarray(T, dtype=float) / epsilon_over_k
+        try:
+            kelvin = np.asarray(T, dtype=float)
+        except (TypeError, ValueError):
+            raise UsageError(f"temperatures must be numbers in K, got {T!r:.60}") from None
+        return kelvin / epsilon_over_k
 
     def viscosity(self, T, molar_mass, sigma, epsilon_over_k):
         """μ(T) in Pa s. T in K, molar_mass kg/mol, sigma m, epsilon_over_k K."""
