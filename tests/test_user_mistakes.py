@@ -412,3 +412,19 @@ def test_fitted_gas_from_a_damaged_record(params):
 def test_more_api_mistakes_are_fitkin_errors(call, fragment):
     with pytest.raises(FitkinError, match=re.escape(fragment)):
         call()
+
+
+@pytest.mark.parametrize("units, fragment", [
+    (["T="], "--unit expects QUANTITY=UNIT"), (["=K"], "--unit expects QUANTITY=UNIT"),
+    (["colour=K"], "--unit colour=K: 'colour' is not a quantity name fitkin knows; use one of T, viscosity"),
+    (["T=degC", "temperature=K"], "--unit gives the unit of temperature twice"),
+    (["T=K", "viscosity=uPa_s"], "--unit viscosity=uPa_s: cannot read the unit 'uPa_s'"),
+])
+def test_unit_option_mistakes_name_the_option(tmp_path, capsys, units, fragment):
+    # invented numbers (synthetic table) in a header without units
+    table = tmp_path / "bare.csv"
+    table.write_text("T,viscosity\n300,22.7\n400,27.4\n", encoding="utf-8")
+    argv = ["check", table] + [x for u in units for x in ("--unit", u)]
+    err = expect_user_error(capsys, *argv, fragments=[fragment])
+    assert "units=" not in err
+    assert run(capsys, "check", table, "--unit", "T=K", "--unit", "viscosity=uPa s")[0] == 0

@@ -1,20 +1,37 @@
 """``fitkin check``, and reading the tables named on any command line."""
 from __future__ import annotations
 
-from ..errors import InputError
+from ..errors import UnitError, UsageError
 from ..io import describe_table, read_tables
-from ..units import parse_quantity
+from ..io.headers import gum_parts
+from ..io.quantities import QUANTITY_KINDS, lookup_kind
+from ..units import parse_quantity, parse_unit
 
 __all__ = ["read_from_args", "run_check"]
 
 
 def _unit_overrides(items: list[str]) -> dict[str, str]:
-    out = {}
+    """{quantity name: unit} of the --unit options, each name known and given once."""
+    out, seen = {}, {}
     for item in items:
-        if "=" not in item:
-            raise InputError(f"--unit expects QUANTITY=UNIT, e.g. T=degC, got '{item}'")
-        name, unit = item.split("=", 1)
-        out[name.strip()] = unit.strip()
+        name, _, unit = (part.strip() for part in str(item).partition("="))
+        if not name or not unit:
+            raise UsageError(f"--unit expects QUANTITY=UNIT, e.g. T=degC, got '{item}'")
+        gum = gum_parts(name)
+        kind = lookup_kind(gum[1] if gum else name)
+        if kind is None:
+            known = ", ".join("T" if k.name == "temperature" else k.synonyms[0] for k in QUANTITY_KINDS)
+            raise UsageError(f"--unit {item}: '{gum[1] if gum else name}' is not a quantity name fitkin knows; "
+                             f"use one of {known} (or u(NAME) for an uncertainty column)")
+        key = ("u" if gum else "") + kind.name
+        if key in seen:
+            raise UsageError(f"--unit gives the unit of {name} twice ('{seen[key]}' and '{item}'); give it once")
+        try:
+            parse_unit(unit)
+        except UnitError as exc:
+            raise UsageError(f"--unit {item}: {exc.message}" + (f" ({exc.hint})" if exc.hint else "")) from None
+        seen[key] = item
+        out[name] = unit
     return out
 
 
