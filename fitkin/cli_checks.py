@@ -107,6 +107,9 @@ def _check_fit(args) -> None:
     _check_tables(args)
     if args.formula is not None and not args.formula.strip():
         raise UsageError("--formula is empty; give the gas's chemical formula, e.g. --formula Ar or --formula CO2")
+    if args.name is not None and not args.name.strip():
+        raise UsageError("--name is empty; give the name the outputs should use, or leave the option out "
+                         "(the formula or the gas file's name is used)")
     if args.molar_mass is not None:
         _molar_mass_unit_hint(args.molar_mass)
     if args.order < 1:

@@ -212,6 +212,8 @@ def test_empty_formula_is_named(lab, tmp_path, capsys):
     err = expect_user_error(capsys, "fit", lab / "visc.csv", "--formula", " ", "--out", tmp_path / "o",
                             fragments=["--formula is empty"])
     assert "--molar-mass" not in err
+    expect_user_error(capsys, "fit", lab / "visc.csv", "--formula", "Ar", "--name", "", "--out", tmp_path / "o",
+                      fragments=["--name is empty"])
 
 
 def test_neufeld_message_speaks_command_line(lab, tmp_path, capsys):
