@@ -133,14 +133,28 @@ def _correction(problem, omega, T_star, order, omega_many=None):
     pairs, coefficients = bracket_coefficients(problem, order)   # validates order
     if order == 1:
         return np.ones_like(t_star)
+    flat = t_star.ravel()
+    f = np.empty(flat.shape)
+    for start in range(0, flat.size, _CHUNK):  # in blocks: the matrices of a million points need not coexist
+        block = slice(start, start + _CHUNK)
+        f[block] = _block_correction(omega, omega_many, pairs, coefficients, flat[block])
+    return f.reshape(t_star.shape)
+
+
+#: Points whose bracket matrices are built at once (about 5 MB each for order 3).
+_CHUNK = 65536
+
+
+def _block_correction(omega, omega_many, pairs, coefficients, t_star):
     values = _evaluate(omega, pairs, t_star, omega_many)          # (npairs, points)
     n = coefficients.shape[0]
+
     def matrix():
         return (coefficients.reshape(n * n, -1) @ values).reshape(n, n, -1)   # (N, N, points)
     f = _first_over_inverse(matrix())
     if f is None:  # a zero pivot: fall back to LU with partial pivoting
         f = _solved(np.moveaxis(matrix(), -1, 0))
-    return f.reshape(t_star.shape)
+    return f
 
 
 def _first_over_inverse(m):
