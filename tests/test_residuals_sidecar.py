@@ -163,3 +163,14 @@ def test_selection_keeps_ends_largest_deviations_and_every_kind():
 def test_sidecar_names_follow_the_parameter_file():
     assert sidecar_path("out/parameters.json").name == "residuals.npz"
     assert sidecar_path("out/parameters-mie.json").name == "residuals-mie.npz"
+
+
+def test_a_small_property_among_many_points_is_kept_whole():
+    n = 5000
+    kinds = np.array(["viscosity"] * (n - 40) + ["second_virial"] * 40, dtype=object)
+    cols = ResidualColumns(file=np.full(n, "a.csv", dtype=object), row=np.arange(n) + 2,
+                           source=np.full(n, "a", dtype=object), property=kinds, T_K=np.linspace(200, 900, n),
+                           measured_SI=np.ones(n), uncertainty_SI=np.ones(n), model_SI=np.ones(n),
+                           deviation_percent=np.zeros(n))
+    points = residual_entries(cols, limit=1000)["residuals"]
+    assert sum(p["property"] == "second_virial" for p in points) == 40 and len(points) <= 1000

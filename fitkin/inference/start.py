@@ -28,6 +28,9 @@ __all__ = ["epsilon_bounds", "starting_values", "profile_sigma", "start_sample",
 #: temperature, not every point of a table of a million rows: beyond this, an evenly spaced
 #: selection (see :func:`start_sample`) is used, and the least-squares fit then uses every point.
 START_POINTS = 5000
+#: Points of each kind the start keeps at least (all of a kind that has fewer), so that a few
+#: B or conductivity points among a million viscosities still shape the start.
+_FEWEST_PER_KIND = 500
 
 #: σ (Å) searched by the start when B data make the σ profile non-linear; the same range
 #: the least-squares fit allows (fitkin.inference.leastsq.SIGMA_BOUNDS_ANGSTROM).
@@ -86,14 +89,15 @@ def profile_sigma(unit, y, w, cubic) -> tuple[float, float]:
 
 def start_sample(data: FitData, limit: int = START_POINTS) -> FitData:
     """``data`` itself up to ``limit`` points; else about ``limit`` of them, per kind a share
-    evenly spaced in temperature with the lowest and highest kept."""
+    (at least 500, or all of a smaller kind) evenly spaced in temperature with the lowest
+    and highest kept."""
     if len(data) <= limit:
         return data
     chosen = []
     for kind in data.kinds:
         idx = np.flatnonzero(data.mask(kind))
         by_t = idx[np.argsort(data.temperature[idx], kind="stable")]
-        share = max(2, limit * len(idx) // len(data))
+        share = min(len(idx), max(_FEWEST_PER_KIND, limit * len(idx) // len(data)))
         chosen.append(by_t[np.unique(np.round(np.linspace(0, len(by_t) - 1, share)).astype(int))])
     return data.take(np.sort(np.concatenate(chosen)))
 

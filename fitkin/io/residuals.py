@@ -38,6 +38,8 @@ __all__ = ["INLINE_LIMIT", "RESIDUAL_FIELDS", "LARGEST_LISTED", "ResidualColumns
 
 #: Most residuals written inline in the parameter file (about 300 bytes each as indented JSON).
 INLINE_LIMIT = 2000
+#: Points of each property the inline selection keeps at least (all of a smaller one).
+FEWEST_PER_KIND = 200
 #: Largest deviations listed per property in the summary of a sidecar.
 LARGEST_LISTED = 10
 _NUMERIC = ("T_K", "measured_SI", "uncertainty_SI", "model_SI", "deviation_percent")
@@ -128,13 +130,20 @@ def sidecar_path(parameter_path) -> Path:
 
 
 def _selection(cols: ResidualColumns, limit: int) -> np.ndarray:
-    """Indices of at most ``limit`` points: per property a share evenly spaced in temperature
-    (both ends kept) and its largest deviations, in the order of the points."""
+    """Indices of about ``limit`` points, in the order of the points: every point of a
+    property with at most :data:`FEWEST_PER_KIND` (or ``limit``/10) of them; of the others a
+    share of the rest, at least that many, evenly spaced in temperature (both ends kept) with
+    their largest deviations."""
     chosen = []
-    kinds = list(dict.fromkeys(cols.property.tolist()))
-    for kind in kinds:
-        idx = np.flatnonzero(cols.property == kind)
-        share = max(2, limit * len(idx) // len(cols))
+    indices = {kind: np.flatnonzero(cols.property == kind) for kind in dict.fromkeys(cols.property.tolist())}
+    fewest = min(FEWEST_PER_KIND, limit // 10)
+    small = sum(len(idx) for idx in indices.values() if len(idx) <= fewest)  # kept whole
+    big = len(cols) - small
+    for kind, idx in indices.items():
+        if len(idx) <= fewest:
+            chosen.append(idx)
+            continue
+        share = min(len(idx), max(fewest, (limit - small) * len(idx) // big))
         size = _deviation_size(cols, kind, idx)
         worst = idx[np.argsort(-size, kind="stable")[:min(LARGEST_LISTED, share // 2)]]
         by_t = idx[np.argsort(cols.T_K[idx], kind="stable")]
