@@ -68,7 +68,7 @@ def parse_range(text: str) -> CandidateGrid:
 
     >>> parse_range("250:300:25").temperatures.tolist()
     [250.0, 275.0, 300.0]
-    >>> [round(t, 2) for t in parse_range("0:100:50 degC").temperatures]
+    >>> [round(float(t), 2) for t in parse_range("0:100:50 degC").temperatures]
     [273.15, 323.15, 373.15]
     """
     form = "'start:stop:step' in kelvin, e.g. 250:1100:5, or with a unit, e.g. '-20:800:5 degC'"
