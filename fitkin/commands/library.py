@@ -1,7 +1,7 @@
 """``fitkin library add|list|show|export``: the parameter library from the command line."""
 from __future__ import annotations
 
-from ..formatting import format_estimate
+from ..formatting import count_of, format_estimate
 from ..library import open_library
 
 __all__ = ["run_library"]
@@ -67,7 +67,7 @@ def _show(args, out) -> int:
     stats = record.get("statistics") or {}
     if "reduced_chi2" in stats:
         print(f"  χ²/ν = {stats['reduced_chi2']:.3g} on {stats.get('points', '?')} points; "
-              f"{len(record.get('warnings') or [])} warning(s)", file=out)
+              f"{count_of(len(record.get('warnings') or []), 'warning')}", file=out)
     if files:
         print(f"  stored beside it: {', '.join(files)}", file=out)
     if others:

@@ -14,6 +14,7 @@ import numpy as np
 from matplotlib.figure import Figure
 
 from .. import __version__
+from ..formatting import count_of
 from ..report import style as st
 from ..report.figures import figure_bytes
 from .result import PROPERTY_UNITS, UNITS, PlanResult
@@ -121,7 +122,7 @@ def plan_html_text(result: PlanResult) -> str:
         f"current uncertainty from {escape(k.source)} · seed {result.inputs['seed']} · made {made} · "
         f"fitkin {escape(__version__)}</p></header>"
         f"<section class=\"summary\"><h2>Recommended measurements</h2>{_points_table(result)}"
-        f"<p>Compared with {len(result.uniform)} uniformly spaced points: {escape(uniform)}.</p>"
+        f"<p>Compared with {count_of(len(result.uniform), 'point')} spaced uniformly: {escape(uniform)}.</p>"
         f"<h2>Expected standard uncertainties</h2>{_rows_table(result)}"
         + (f"<ul>{warnings}</ul>" if warnings else "") + "</section>"
         + figures + verification +
