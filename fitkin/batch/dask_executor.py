@@ -10,6 +10,8 @@ Jobs are seeded, so the results are those of the sequential run.
 """
 from __future__ import annotations
 
+import logging
+
 from ..errors import FitkinError, UsageError
 from .executors import Executor
 
@@ -52,11 +54,17 @@ class DaskExecutor(Executor):
             self.description = f"the Dask cluster at {scheduler} ({self.workers} workers now)"
         else:
             self._cluster = LocalCluster(n_workers=int(local_workers), threads_per_worker=1, processes=True,
-                                         host="127.0.0.1", scheduler_port=0, dashboard_address=None)
+                                         host="127.0.0.1", scheduler_port=0, dashboard_address=None,
+                                         silence_logs=logging.ERROR)  # no worker chatter on the terminal
             self._client = Client(self._cluster, set_as_default=False)
             self.workers = int(local_workers)
             self.description = (f"a local Dask cluster of {self.workers} worker process"
                                 f"{'es' if self.workers != 1 else ''} at {self._cluster.scheduler_address}")
+
+    @property
+    def client(self):
+        """The :class:`distributed.Client` the jobs are submitted through."""
+        return self._client
 
     @property
     def scheduler_address(self) -> str:

@@ -4,7 +4,10 @@
 (:func:`fitkin.cli_checks.check_arguments`), reads the tables and runs
 :func:`fitkin.workflow.run_fit_job` exactly as ``fitkin fit`` does, writing the job's folder.
 Linear algebra runs on one thread (:func:`threadpoolctl.threadpool_limits`), so the
-arithmetic — and the result, to the last bit — is the same in every executor. It never
+arithmetic — and the result, to the last bit — is the same in every executor. (A Python
+session that computed transport properties on several BLAS threads before calling
+:func:`fitkin.run_batch` in-process keeps what it cached then, and may differ from a worker
+in the tenth digit.) It never
 raises for a job that fails: a user mistake (a bad table, a fit that does not
 converge) comes back as status "failed" with its one-line message, a fault of fitkin as
 "fault"; the other jobs go on. The :class:`JobOutcome` is plain data, so it travels back from
