@@ -109,7 +109,7 @@ def test_collision_cache_is_safe_with_four_processes(tmp_path):
     with ctx.Manager() as manager:
         start = manager.Event()
         with ctx.Pool(4) as pool:
-            pending = pool.starmap_async(_build_and_rewrite, [(folder, start, 30)] * 4)
+            pending = pool.starmap_async(_build_and_rewrite, [(folder, start, 10)] * 4)
             start.set()
             results = pending.get(timeout=600)
     tables = {r[0] for r in results}

@@ -198,3 +198,24 @@ def test_batch_adds_its_fits_to_a_library(fits, tmp_path, capsys):
     with open_library(db) as lib:
         assert len(lib) == 2 and lib.select("argon")[0].label == "argon"
         assert lib["krypton"].record == fitkin.load_parameters(tmp_path / "run" / "krypton" / "parameters.json").record
+
+
+def test_choosing_options_on_the_command_line(library, tmp_path, capsys):
+    with open_library(library) as lib:
+        first = [e for e in lib.entries("argon") if e.label == "" and e.potential == "lj"][0]
+    assert main(["library", "list", str(library), "--label", "sampled"]) == 0
+    rows = capsys.readouterr().out.splitlines()[1:-1]
+    assert len(rows) == 1 and "sampled" in rows[0]
+    assert main(["library", "show", str(library), "argon", "--id", str(first.id)]) == 0
+    assert capsys.readouterr().out.splitlines()[0] == f"{first.describe()}: the fit asked for"
+    assert main(["library", "show", str(library), "argon", "--potential", "mie", "--date", first.created_utc[:7]]) == 0
+    assert "mie:14" in capsys.readouterr().out.splitlines()[0]
+    assert main(["library", "show", str(library), "krypton", "--id", str(first.id)]) == 2
+    assert f"fit id {first.id} is of argon, not krypton" in capsys.readouterr().err
+    out = tmp_path / "e"
+    assert main(["library", "export", str(library), "argon", "--id", str(first.id), "--out", str(out)]) == 0
+    (out / "parameters.json").write_text("edited\n", encoding="utf-8")
+    assert main(["library", "export", str(library), "argon", "--id", str(first.id), "--out", str(out)]) == 2
+    assert main(["library", "export", str(library), "argon", "--id", str(first.id), "--out", str(out), "--force"]) == 0
+    with open_library(library) as lib:
+        assert (out / "parameters.json").read_bytes() == lib.parameter_bytes(first)
