@@ -302,3 +302,36 @@ def test_example_manifest_and_its_synthetic_tables():
     assert "SYNTHETIC DATA ONLY" in (sample / "batch_example.toml").read_text(encoding="utf-8")
     assert [j.name for j in manifest.jobs] == ["krypton", "argon", "xenon-posterior"]
     assert all(Path(p).is_file() for j in manifest.jobs for p in j.inputs)
+
+
+def test_an_interrupted_batch_resumes_where_it_stopped(tmp_path):
+    from fitkin.batch import run_batch
+    from fitkin.batch.executors import SequentialExecutor
+    manifest = make_inputs(tmp_path / "in")
+    seen = []
+
+    def stop_after_first(outcome):
+        seen.append(outcome.name)
+        raise KeyboardInterrupt  # as Ctrl-C would, after the first job finished
+
+    with pytest.raises(KeyboardInterrupt):
+        run_batch(manifest, tmp_path / "run", executor=SequentialExecutor(), on_outcome=stop_after_first)
+    assert seen == ["argon"] and (tmp_path / "run" / "argon" / "parameters.json").is_file()
+    lines = []
+    result = run_batch(manifest, tmp_path / "run", executor=SequentialExecutor(), progress=lines.append)
+    assert result.skipped == ("argon",) and lines[0].startswith("1 of 4 jobs unchanged")
+    assert [o.status for o in result.outcomes] == ["ok", "ok", "failed", "ok"]
+
+
+def test_a_fault_in_fitkin_is_recorded_and_exits_3(tmp_path, monkeypatch, capsys):
+    import fitkin.batch.job as job_module
+
+    def broken(*args, **kwargs):
+        raise ZeroDivisionError("a bug")
+    manifest = make_inputs(tmp_path / "in")
+    monkeypatch.setattr(job_module, "run_fit_job", broken)
+    assert main(["batch", str(manifest), "--out", str(tmp_path / "run"), "--jobs", "1"]) == 3
+    rows = read_summary(tmp_path / "run")
+    assert rows["argon"]["status"] == "fault" and "ZeroDivisionError: a bug" in rows["argon"]["message"]
+    assert rows["bad-table"]["status"] == "failed"  # its table is refused before any fitting
+    assert "3 stopped by a fault in fitkin" in capsys.readouterr().out
