@@ -53,7 +53,7 @@ _EPILOG_PLAN = """examples:
 _EPILOG_BATCH = """examples:
   fitkin batch gases.toml --out batch-run             (one worker process per core)
   fitkin batch gases.toml --out batch-run --jobs 1    (one job after another; a rerun skips finished jobs)
-  fitkin batch gases.toml --out /shared/run --scheduler tcp://10.0.0.5:8786 --library fits.sqlite
+  fitkin batch gases.toml --out /shared/run --scheduler tcp://cluster-head:8786 --library fits.sqlite
 """
 _EPILOG_LIBRARY = """examples:
   fitkin library add fits.sqlite fit-argon fit-krypton --label "lab run 3"

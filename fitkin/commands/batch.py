@@ -29,7 +29,7 @@ def _check(args) -> None:
     if args.dask_local is not None and args.dask_local < 1:
         raise UsageError(f"--dask-local must be a whole number ≥ 1 (worker processes), got {args.dask_local}")
     if args.scheduler is not None and "://" not in args.scheduler and ":" not in args.scheduler:
-        raise UsageError(f"--scheduler expects the scheduler's address, e.g. tcp://10.0.0.5:8786, got "
+        raise UsageError(f"--scheduler expects the scheduler's address, e.g. tcp://cluster-head:8786, got "
                          f"'{args.scheduler}'")
 
 
