@@ -1,6 +1,7 @@
 r"""Chapman–Enskog transport of dilute binary (and multicomponent) gas mixtures.
 
-Pure formulas on plain numbers: combining rules for the unlike interaction, the binary
+Pure formulas on plain numbers (the combining rules for the unlike interaction live in
+:mod:`fitkin.theory.combining_rules`; Lorentz–Berthelot is re-exported here): the binary
 diffusion coefficient D12 and the mixture viscosity μ_mix, all in the first Chapman–Enskog
 approximation. The reduced collision integrals of the unlike pair, Ω12(l,s)*(T*12) with
 T*12 = kT/ε12, are evaluated by the caller (see :class:`fitkin.mixture.GasPair`). All
@@ -18,6 +19,7 @@ from scipy import constants
 
 from ..errors import FitkinError
 from .chapman_enskog import monatomic_conductivity_first, viscosity_first
+from .combining_rules import lorentz_berthelot
 
 __all__ = [
     "lorentz_berthelot",
@@ -34,45 +36,6 @@ __all__ = [
 
 _KB = constants.k
 _NA = constants.N_A
-
-
-def lorentz_berthelot(sigma1, sigma2, epsilon1_over_k, epsilon2_over_k, k12=0.0, l12=0.0):
-    r"""Unlike-pair size and well depth from the like ones (Lorentz–Berthelot rules).
-
-    .. math:: σ_{12} = (1 - l_{12})\,\frac{σ_1 + σ_2}{2}, \qquad
-              ε_{12} = (1 - k_{12})\,\sqrt{ε_1 ε_2}
-
-    With k12 = l12 = 0 these are the plain rules: the arithmetic mean of the diameters
-    (Lorentz) and the geometric mean of the well depths (Berthelot). The binary interaction
-    parameters k12 and l12 are the usual empirical corrections (k12 > 0 weakens the unlike
-    attraction).
-
-    Parameters: sigma1, sigma2 in m (or any common length unit, kept in the result);
-    epsilon1_over_k, epsilon2_over_k in K; k12, l12 dimensionless, each below 1.
-    Returns (sigma12, epsilon12_over_k) as floats.
-
-    References
-    ----------
-    Lorentz, H. A., Ann. Phys. (Leipzig) 248, 127 (1881); Berthelot, D., C. R. Acad. Sci.
-    Paris 126, 1703 (1898); Hirschfelder, Curtiss & Bird, Molecular Theory of Gases and
-    Liquids (1954), §8.6; Bird, Stewart & Lightfoot, Transport Phenomena, 2nd ed. (2002),
-    eqs. (17.3-14) and (17.3-15) (equation numbers from memory).
-
-    Examples
-    --------
-    Bird, Stewart & Lightfoot (2002), Example 17.3-1, CO–CO₂ with their Table E.1 values
-    (σ in Å, ε/k in K; from memory): σ_AB = 3.793 Å, ε_AB/k = 144.6 K.
-
-    >>> s, e = lorentz_berthelot(3.590, 3.996, 110.0, 190.0)
-    >>> round(s, 3), round(e, 1)
-    (3.793, 144.6)
-    """
-    k12, l12 = float(k12), float(l12)
-    if not (np.isfinite(k12) and k12 < 1.0) or not (np.isfinite(l12) and l12 < 1.0):
-        raise FitkinError(f"combining-rule corrections must be finite and below 1, got k12={k12:g}, "
-                          f"l12={l12:g}")
-    sigma12 = (1.0 - l12) * 0.5 * (float(sigma1) + float(sigma2))
-    return sigma12, (1.0 - k12) * float(np.sqrt(float(epsilon1_over_k) * float(epsilon2_over_k)))
 
 
 def reduced_molar_mass(molar_mass1, molar_mass2):
