@@ -34,9 +34,18 @@ from .inference.compare import parse_potential_choice
 from .inference.model import ANGSTROM, with_shape
 from .potentials import Potential
 from .theory import mixtures as mix
+from .theory.combining_rules import COMBINING_RULES, combining_rule
 from .theory.transport import TransportModel
 
 __all__ = ["GasPair", "STANDARD_PRESSURE"]
+
+#: How :meth:`GasPair.describe` names each combining rule's size and well-depth parts.
+_RULE_WORDS = {
+    "lorentz-berthelot": ("Lorentz (arithmetic mean)", "Berthelot (geometric mean)"),
+    "kong": ("Kong 1973 (12-6 repulsion mean)", "Kong 1973 (geometric mean of ε σ⁶)"),
+    "waldman-hagler": ("Waldman–Hagler 1993 (sixth-power mean)", "Waldman–Hagler 1993 (geometric mean of ε σ⁶)"),
+    "halgren": ("Halgren 1992 (cubic mean)", "Halgren 1992 (HHG mean)"),
+}
 
 #: Default pressure of :meth:`GasPair.binary_diffusion`, Pa (1 atm).
 STANDARD_PRESSURE = 101325.0
@@ -80,7 +89,10 @@ class GasPair:
     first, second : :class:`fitkin.fitted.FittedGas` (from :func:`fitkin.fitted.load_parameters`).
     sigma12 : m, the unlike zero crossing; default (σ1 + σ2)/2 (Lorentz), times (1 − l12).
     epsilon12_over_k : K, the unlike well depth; default √(ε1 ε2)/k (Berthelot), times (1 − k12).
-    k12, l12 : binary interaction corrections of the combining rules (default 0); an explicit
+    rule : the combining rule for the σ12 and ε12 not given, a name of
+        :data:`fitkin.theory.combining_rules.COMBINING_RULES` (default ``"lorentz-berthelot"``;
+        also ``"kong"``, ``"waldman-hagler"``, ``"halgren"``).
+    k12, l12 : binary interaction corrections of the combining rule (default 0); an explicit
         ``sigma12`` (``epsilon12_over_k``) cannot be combined with ``l12`` (``k12``).
     shape : potential shape of the unlike pair; needed only when the two gases' shapes differ.
     order : Sonine order of μ1, μ2, μ12 in the mixture viscosity (default: the order both
@@ -93,14 +105,14 @@ class GasPair:
 
     def __init__(self, first: FittedGas, second: FittedGas, *, sigma12: float | None = None,
                  epsilon12_over_k: float | None = None, k12: float = 0.0, l12: float = 0.0,
-                 shape=None, order: int | None = None):
+                 rule: str = "lorentz-berthelot", shape=None, order: int | None = None):
         for g, which in ((first, "first"), (second, "second")):
             if not isinstance(g, FittedGas):
                 raise FitkinError(f"the {which} gas must be a FittedGas (use fitkin.fitted.load_parameters), "
                                   f"got {type(g).__name__}")
         self.first, self.second = first, second
         self.names = (_label(first, "gas 1"), _label(second, "gas 2"))
-        self._init_rules(sigma12, epsilon12_over_k, float(k12), float(l12))
+        self._init_rules(sigma12, epsilon12_over_k, float(k12), float(l12), rule)
         self._init_models(shape, order)
 
     # -- construction --------------------------------------------------------------------
@@ -111,12 +123,14 @@ class GasPair:
         return cls(load_parameters(first), load_parameters(second), sigma12=sigma12,
                    epsilon12_over_k=epsilon12_over_k, k12=k12, **options)
 
-    def _init_rules(self, sigma12, eps12, k12, l12):
+    def _init_rules(self, sigma12, eps12, k12, l12, rule_name):
         if sigma12 is not None and l12 != 0.0:
             raise FitkinError("give either sigma12 or the correction l12, not both")
         if eps12 is not None and k12 != 0.0:
             raise FitkinError("give either epsilon12_over_k or the correction k12, not both")
-        s_rule, e_rule = mix.lorentz_berthelot(self.first.sigma, self.second.sigma, self.first.epsilon_over_k,
+        rule_function = combining_rule(rule_name)
+        self.rule = next(name for name, f in COMBINING_RULES.items() if f is rule_function)
+        s_rule, e_rule = rule_function(self.first.sigma, self.second.sigma, self.first.epsilon_over_k,
                                                self.second.epsilon_over_k, k12=k12, l12=l12)
         self.sigma12 = float(sigma12) if sigma12 is not None else s_rule
         self.epsilon12_over_k = float(eps12) if eps12 is not None else e_rule
@@ -127,11 +141,12 @@ class GasPair:
             raise FitkinError(f"sigma12 = {self.sigma12:g} m is not a molecular size; give it in metres "
                               f"(e.g. 3.4e-10 for 3.4 Å)")
         self.k12, self.l12 = k12, l12
+        size_words, depth_words = _RULE_WORDS[self.rule]
         rule = []
         rule.append("σ12 given" if sigma12 is not None else
-                    ("Lorentz (arithmetic mean)" + (f" × (1 − l12), l12 = {l12:g}" if l12 else "")))
+                    (size_words + (f" × (1 − l12), l12 = {l12:g}" if l12 else "")))
         rule.append("ε12 given" if eps12 is not None else
-                    ("Berthelot (geometric mean)" + (f" × (1 − k12), k12 = {k12:g}" if k12 else "")))
+                    (depth_words + (f" × (1 − k12), k12 = {k12:g}" if k12 else "")))
         self.rules = "; ".join(rule)
 
     def _init_models(self, shape, order):
@@ -184,6 +199,7 @@ class GasPair:
             "pair": self.name,
             "gases": list(self.names),
             "files": [self.first.path, self.second.path],
+            "combining_rule": self.rule,
             "combining_rules": self.rules,
             "k12": self.k12, "l12": self.l12,
             "sigma12_angstrom": self.sigma12 / ANGSTROM,

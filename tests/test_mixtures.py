@@ -21,6 +21,7 @@ from fitkin.mixture import GasPair
 from fitkin.potentials import LennardJones, Mie
 from fitkin.species import Gas
 from fitkin.theory import mixtures as mix
+from fitkin.theory.combining_rules import halgren_hhg, kong
 from fitkin.theory.transport import TransportModel
 
 ATM = 101325.0
@@ -64,6 +65,27 @@ def test_lorentz_berthelot_bsl_example():
     pair = GasPair(CO, CO2)
     assert pair.sigma12 == pytest.approx(3.793e-10, abs=5e-14)
     assert pair.epsilon12_over_k == pytest.approx(144.6, abs=0.05)
+
+
+def test_pair_with_another_combining_rule():
+    # the pair applies the chosen rule (hand-checked in tests/test_combining_rules.py) to the fitted
+    # σ (m) and ε/k (K) of both gases, then the correction k12 as for Lorentz–Berthelot
+    pair = GasPair(AR, KR, rule="halgren", k12=0.02)
+    s, e = halgren_hhg(AR.sigma, KR.sigma, AR.epsilon_over_k, KR.epsilon_over_k)
+    assert pair.sigma12 == pytest.approx(s, rel=1e-12)
+    assert pair.epsilon12_over_k == pytest.approx(0.98 * e, rel=1e-12)
+    described = pair.describe()
+    assert described["combining_rule"] == "halgren"
+    assert described["combining_rules"] == "Halgren 1992 (cubic mean); Halgren 1992 (HHG mean) × (1 − k12), k12 = 0.02"
+    assert GasPair(AR, KR).describe()["combining_rule"] == "lorentz-berthelot"
+    assert GasPair(AR, KR, rule="waldman_hagler").rule == "waldman-hagler"
+    kong_pair = GasPair(AR, KR, rule="Kong", sigma12=3.6e-10)
+    assert kong_pair.sigma12 == 3.6e-10
+    assert kong_pair.epsilon12_over_k == pytest.approx(
+        kong(AR.sigma, KR.sigma, AR.epsilon_over_k, KR.epsilon_over_k)[1], rel=1e-12)
+    assert kong_pair.describe()["combining_rules"].startswith("σ12 given; Kong 1973")
+    with pytest.raises(FitkinError, match="unknown combining rule 'mean'"):
+        GasPair(AR, KR, rule="mean")
 
 
 def test_overrides_and_corrections():
