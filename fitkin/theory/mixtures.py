@@ -233,7 +233,7 @@ def b_star(omega11, omega12, omega13):
     Reference: Hirschfelder, Curtiss & Bird (1954), §8.2 (definition of B*, with A* and C*).
     Rigid spheres (every reduced Ω equal to 1) have B* = 1:
 
-    >>> float(b_star(1.0, 1.0, 1.0))
+    >>> round(float(b_star(1.0, 1.0, 1.0)), 6)
     1.0
     """
     return (5.0 * np.asarray(omega12, dtype=float) - 4.0 * np.asarray(omega13, dtype=float)) / np.asarray(omega11)
