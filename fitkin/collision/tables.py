@@ -11,23 +11,11 @@ counts; the estimate is the absolute difference of ln Ω between the two, i.e. t
 (conservative) error of the cheaper one, plus an estimate of the interpolation error in
 ln T* (from a spline through every other point, see :func:`_interpolation_error`).
 
-Mie n-m with non-grid n, exp-6 with non-grid alpha
---------------------------------------------------
-``collision_table(Mie(n, m))`` with n not on the grid n_k = m + k (k = 1, 2, …) returns a
-table interpolated in n: a 5-point Lagrange interpolation of ln Ω (and of the spline
-coefficients, which are linear in the data) between the exact tables at the five grid
-values around n, each built lazily and cached on disk (the interpolated table itself is
-kept in memory only; making one from warm grid tables takes well under a millisecond, so a
-fit with n free is interactive).  The error estimate of such a table adds the larger
-difference between that quartic and the cubics through four consecutive stencil nodes,
-times :data:`INTERPOLATION_SAFETY`.  For
-n < m + 1 the exact table is built instead.  ``ExpSix(alpha)`` is treated the same way on
-the grid alpha = 9, 9.1, …, 40 (Ω of exp-6 depends strongly on alpha at high T*,
-where collisions reach the inner maximum, hence the finer step).
+Mie n-m and exp-6 shapes off their parameter grids get tables interpolated in that parameter
+(:mod:`fitkin.collision.shape_grid`).
 """
 from __future__ import annotations
 
-import math
 from collections import OrderedDict
 
 import numpy as np
@@ -36,8 +24,9 @@ from scipy.interpolate import CubicSpline
 import fitkin.collision.cache as _cache
 from fitkin.collision.averages import compute_collision_integrals
 from fitkin.collision.scattering import ScatteringResolution
+from fitkin.collision.shape_grid import family_interpolated, family_stencil
 from fitkin.errors import OutOfRangeError, PotentialError
-from fitkin.potentials import ExpSix, Mie, Potential
+from fitkin.potentials import Potential
 
 __all__ = [
     "TABLE_T_STAR_RANGE", "L_MAX", "S_MAX", "POINTS_PER_DECADE", "CollisionTable",
@@ -58,14 +47,6 @@ POINTS_PER_DECADE = 40
 #: A tabulated potential's table is valid up to T* = U*(first table point) / this factor
 #: (collisions at higher energy would probe the extrapolated wall).
 WALL_ENERGY_FACTOR = 10.0
-#: Factor on the quartic-minus-cubic spread in the error estimate of a table interpolated in
-#: a shape parameter (the spread alone was seen to under-estimate by up to ~3x).
-INTERPOLATION_SAFETY = 3.0
-#: Spacing of the Mie n grid used for interpolation in n.
-MIE_N_STEP = 1.0
-#: Spacing and extent of the exp-6 alpha grid used for interpolation in alpha.
-EXP6_ALPHA_STEP = 0.1
-EXP6_ALPHA_GRID = (9.0, 40.0)
 
 
 def _table_grid() -> np.ndarray:
@@ -322,64 +303,6 @@ def _exact_table(potential: Potential) -> CollisionTable:
     return table
 
 
-def _lagrange_weights(x: float, nodes: np.ndarray) -> np.ndarray:
-    w = np.ones(nodes.size)
-    for i in range(nodes.size):
-        for j in range(nodes.size):
-            if i != j:
-                w[i] *= (x - nodes[j]) / (nodes[i] - nodes[j])
-    return w
-
-
-def _family_stencil(potential: Potential):
-    """For a Mie n or exp-6 alpha off its grid: (grid values of the stencil, a function
-    making the shape at a grid value, the parameter value, its name); None when the exact
-    table is to be used."""
-    if isinstance(potential, Mie):
-        m = potential.m
-        k = (potential.n - m) / MIE_N_STEP
-        if abs(k - round(k)) <= 1e-9 or k <= 1.0:
-            return None
-        k0 = max(1, int(math.floor(k)) - 2)
-        nodes = m + np.arange(k0, k0 + 5) * MIE_N_STEP
-        return nodes, (lambda v: Mie(float(v), m)), potential.n, "n"
-    if isinstance(potential, ExpSix):
-        a = potential.alpha
-        k = a / EXP6_ALPHA_STEP
-        lo, hi = EXP6_ALPHA_GRID
-        if abs(k - round(k)) <= 1e-9 or not lo <= a <= hi:
-            return None
-        k0 = int(math.floor(k)) - 2
-        k0 = min(max(k0, int(round(lo / EXP6_ALPHA_STEP))), int(round(hi / EXP6_ALPHA_STEP)) - 4)
-        nodes = np.arange(k0, k0 + 5) * EXP6_ALPHA_STEP
-        return nodes, (lambda v: ExpSix(float(v))), a, "alpha"
-    return None
-
-
-def _family_interpolated(potential: Potential, stencil) -> CollisionTable:
-    """Table interpolated in a shape parameter between exact tables at grid values."""
-    nodes, make, value, pname = stencil
-    tables = [_exact_table(make(v)) for v in nodes]
-    w5 = _lagrange_weights(value, nodes)
-    ln_omega = sum(w * t.ln_omega for w, t in zip(w5, tables))
-    # interpolation error estimate: the larger difference between this quartic and the
-    # cubics through four consecutive stencil nodes
-    spread = np.zeros_like(ln_omega)
-    for sub in (slice(0, 4), slice(1, 5)):
-        w4 = _lagrange_weights(value, nodes[sub])
-        cubic = sum(w * t.ln_omega for w, t in zip(w4, tables[sub]))
-        spread = np.maximum(spread, np.abs(ln_omega - cubic))
-    # the spread can pass through zero at some T*: use its running maximum over ±3 points
-    padded = np.pad(spread, ((0, 0), (0, 0), (3, 3)), mode="edge")
-    spread = np.max(np.lib.stride_tricks.sliding_window_view(padded, 7, axis=2), axis=3)
-    ln_error = sum(abs(w) * t.ln_error for w, t in zip(w5, tables)) + INTERPOLATION_SAFETY * spread
-    coef = sum(w * t._coef for w, t in zip(w5, tables))
-    note = (f"interpolated in {pname} (5-point Lagrange) between tables at {pname} = "
-            + ", ".join(f"{v:g}" for v in nodes))
-    return CollisionTable._from_coefficients(potential, tables[0].ln_t, ln_omega, ln_error,
-                                             coef, note)
-
-
 _MEMORY: "OrderedDict[Potential, CollisionTable]" = OrderedDict()
 _MEMORY_SIZE = 64
 
@@ -407,9 +330,9 @@ def collision_table(potential: Potential) -> CollisionTable:
     table = _MEMORY.get(potential)
     if table is not None:
         return table
-    stencil = _family_stencil(potential)
+    stencil = family_stencil(potential)
     if stencil is not None:
-        table = _family_interpolated(potential, stencil)
+        table = family_interpolated(potential, stencil, _exact_table)
         _remember(potential, table)
         return table
     return _exact_table(potential)

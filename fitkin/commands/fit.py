@@ -7,7 +7,7 @@ from dataclasses import replace
 from ..errors import FitkinError
 from ..inference.compare_internal import parse_conductivity_models
 from ..inference.corresponding_states import parse_critical_constants
-from ..inference.likelihood import parse_calibration
+from ..inference.calibration import parse_calibration
 from ..inference.model import AutomaticInternalModel
 from ..inference.priors import parse_prior_assignment
 from ..measurements import PROPERTY_KINDS

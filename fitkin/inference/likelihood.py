@@ -27,10 +27,11 @@ import math
 import numpy as np
 from scipy.special import gammaln
 
-from ..collision import tables
+from ..collision import shape_grid
 from ..errors import FitError, OutOfRangeError
 from ..measurements import SIGNED_KINDS
 from ..potentials import ExpSix, Mie
+from .calibration import calibration_name, parse_calibration, source_offsets
 from .fitdata import FitData
 from .model import ANGSTROM, ForwardModel, second_virial_coefficient
 from .priors import Gaussian, Uniform
@@ -42,10 +43,6 @@ LIKELIHOOD_FORMS = ("gaussian", "student_t")
 SCATTER_NAME = "log10_scatter"
 #: Prior range of log10(s): s from 0.001 % to 50 % (uniform in log s, i.e. log-uniform in s).
 SCATTER_LOG10_RANGE = (-5.0, math.log10(0.5))
-
-
-def calibration_name(source: str) -> str:
-    return f"calibration[{source}]"
 
 
 def _viscosity(tm, T, p, M, sigma, eps):
@@ -231,7 +228,7 @@ class LogLikelihood:
 
         ln(prediction) is interpolated in the shape parameter by 5-point Lagrange weights
         between the exact grid shapes, each evaluated for all its walkers at once — the same
-        stencil and weights the collision tables use for ln Ω (see fitkin.collision.tables),
+        stencil and weights the collision tables use for ln Ω (see fitkin.collision.shape_grid),
         so the two agree to the interpolation error (checked in the tests). B, which changes
         sign, is interpolated itself rather than its logarithm.
         """
@@ -333,24 +330,6 @@ class LogLikelihood:
         return d
 
 
-def parse_calibration(text: str) -> tuple[str, float]:
-    """``SOURCE=REL_U`` (the ``--calibrate`` option; ``REL_U`` as 0.02 or 2%) → (source, 0.02).
-
-    >>> parse_calibration("hot-wire 2019=1.5%")
-    ('hot-wire 2019', 0.015)
-    """
-    if "=" not in str(text):
-        raise FitError(f"--calibrate expects SOURCE=RELATIVE_UNCERTAINTY, e.g. 'lab B=0.02' or 'lab B=2%', got '{text}'")
-    source, value = (t.strip() for t in str(text).rsplit("=", 1))
-    try:
-        rel = float(value[:-1]) / 100.0 if value.endswith("%") else float(value)
-    except ValueError:
-        raise FitError(f"--calibrate {text}: '{value}' is not a number (write 0.02 or 2%)") from None
-    if not source:
-        raise FitError(f"--calibrate {text}: the source name is empty")
-    return source, rel
-
-
 def _scatter_scale(data: FitData) -> np.ndarray:
     """(n,) what the relative extra scatter multiplies: |y_i|, or the rms |B| for B points."""
     y = np.abs(np.asarray(data.value, dtype=float))
@@ -367,40 +346,9 @@ def _shape_stencil(model: ForwardModel):
         return None
     name, pot = model.free_shape[0], model.potential
     if isinstance(pot, Mie) and name == "n" and type(pot) is Mie:
-        return name, tables.MIE_N_STEP, float(pot.m), 1, 10**6
+        return name, shape_grid.MIE_N_STEP, float(pot.m), 1, 10**6
     if isinstance(pot, ExpSix) and name == "alpha":
-        lo, hi = tables.EXP6_ALPHA_GRID
-        step = tables.EXP6_ALPHA_STEP
+        lo, hi = shape_grid.EXP6_ALPHA_GRID
+        step = shape_grid.EXP6_ALPHA_STEP
         return name, step, 0.0, int(round(lo / step)), int(round(hi / step))
     return None
-
-
-def source_offsets(data: FitData, prediction: np.ndarray) -> dict:
-    """Per source: weighted mean relative offset d = ⟨y/m − 1⟩ and its standard error.
-
-    The standard error is scaled by the source's Birge ratio √(χ²/ν) when above 1 (Birge,
-    Phys. Rev. 40, 207 (1932)), so scatter beyond the stated uncertainties widens it.
-    Returns {source: (offset, standard_error, points)}; points without u use equal weights.
-    Points of :data:`~fitkin.measurements.SIGNED_KINDS` (B, which changes sign) are left
-    out: a relative offset means nothing for them, so a source of B data only has no entry.
-    """
-    keep = ~np.isin(np.asarray(data.kind, dtype=object), SIGNED_KINDS)
-    y, m = np.asarray(data.value, float)[keep], np.asarray(prediction, float)[keep]
-    u = np.asarray(data.uncertainty, float)[keep]
-    rel_u = np.where(np.isfinite(u) & (u > 0), u / np.abs(m), np.nan)
-    src = np.asarray([str(s) for s in np.asarray(data.source)[keep]], dtype=object)
-    out = {}
-    for s in sorted(set(src)):
-        k = src == s
-        e = y[k] / m[k] - 1.0
-        ru = rel_u[k]
-        if np.any(~np.isfinite(ru)):
-            ru = np.full(k.sum(), max(float(np.std(e, ddof=1)) if k.sum() > 1 else 0.0, 1e-6))
-        w = 1.0 / ru**2
-        d = float(np.sum(w * e) / np.sum(w))
-        se = 1.0 / math.sqrt(float(np.sum(w)))
-        if k.sum() > 1:
-            birge = math.sqrt(float(np.sum(w * (e - d) ** 2)) / (k.sum() - 1))
-            se *= max(1.0, birge)
-        out[s] = (d, se, int(k.sum()))
-    return out

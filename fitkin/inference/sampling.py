@@ -26,7 +26,8 @@ from .diagnostics import (Diagnostics, acceptance_summary, assess_convergence, e
                           integrated_time, split_rhat)
 from .fitdata import FitData
 from .leastsq import fit_least_squares, resolve_internal
-from .likelihood import LogLikelihood, calibration_name, source_offsets
+from .calibration import calibration_name, source_offsets
+from .likelihood import LogLikelihood
 from .model import ForwardModel
 from .posterior import Posterior
 from .priors import Gaussian, Prior, PriorSet, Uniform, parse_prior
