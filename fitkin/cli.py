@@ -178,7 +178,7 @@ def build_parser() -> argparse.ArgumentParser:
                       help="do not apply the Stockmayer correction even though the gas has a dipole moment")
     samp = p.add_argument_group("posterior sampling")
     samp.add_argument("--sample", action="store_true", help="sample the posterior with emcee after the fit")
-    samp.add_argument("--walkers", type=int, help="ensemble size (default max(32, 8 × parameters))")
+    samp.add_argument("--walkers", type=int, help="ensemble size, even (default max(32, 8 × parameters))")
     samp.add_argument("--max-steps", type=int, help="step limit (default 20000)")
     samp.add_argument("--seed", type=int, help="random seed (default: drawn, and recorded)")
     samp.add_argument("--extra-scatter", action="store_true", help="fit an unknown relative extra scatter")

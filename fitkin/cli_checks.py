@@ -127,8 +127,9 @@ def _check_fit(args) -> None:
         raise UsageError(f"{', '.join(given)} {'is' if len(given) == 1 else 'are'} used only when sampling "
                          "the posterior: add --sample (or leave the option out)")
     _check_seed(args.seed)
-    if args.walkers is not None and args.walkers < 2:
-        raise UsageError(f"--walkers must be a whole number ≥ 2 (at least twice the parameters), got {args.walkers}")
+    if args.walkers is not None and (args.walkers < 2 or args.walkers % 2):
+        raise UsageError(f"--walkers must be an even whole number ≥ 2 (at least twice the parameters; the "
+                         f"ensemble moves in two halves), got {args.walkers}")
     if args.max_steps is None:
         args.max_steps = DEFAULT_MAX_STEPS
     elif args.max_steps < 100:

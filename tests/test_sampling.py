@@ -231,6 +231,12 @@ def test_sampler_that_cannot_start():
     assert pos.shape == (16, 2) and np.all(pos[:, 0] <= 3.4)
 
 
+def test_odd_walker_count_is_refused_not_rounded():
+    data = synthetic([("viscosity", np.linspace(150, 1000, 8), 0.005, 0.005, "A", 1.0)], seed=3)
+    with pytest.raises(FitError, match="must be even"):
+        sample_posterior(data, ARGON, **FAST, walkers=33, max_steps=200, seed=1)
+
+
 def test_contradictory_sources_even_with_calibration():
     # 20 % apart with 1 % calibration widths: no honest combination exists.
     parts = [("viscosity", np.linspace(200, 800, 8), 0.005, 0.005, "A", 1.0),

@@ -174,7 +174,8 @@ def test_sampling_options_need_sample(lab, tmp_path, capsys, option, value):
 
 @pytest.mark.parametrize("extra, fragment", [
     (["--seed", "-1"], "--seed must be a whole number from 0"),
-    (["--walkers", "1"], "--walkers must be"), (["--max-steps", "5"], "--max-steps must be"),
+    (["--walkers", "1"], "--walkers must be"), (["--walkers", "3"], "--walkers must be an even"),
+    (["--max-steps", "5"], "--max-steps must be"),
 ])
 def test_bad_sampling_values(lab, tmp_path, capsys, extra, fragment):
     expect_user_error(capsys, "fit", lab / "visc.csv", "--formula", "Ar", "--out", tmp_path / "o", "--sample",

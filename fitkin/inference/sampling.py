@@ -322,8 +322,9 @@ def sample_posterior(data: FitData, gas: Gas, potential=None, *, free_shape=(), 
         raise FitError("the sampler cannot start: the posterior is zero at the least-squares solution "
                        "(the model cannot be evaluated there)")
     dim = len(names)
+    if walkers is not None and int(walkers) % 2:
+        raise FitError(f"the number of walkers must be even (the ensemble moves in two halves), got {walkers}")
     walkers = int(walkers or max(32, 8 * dim))
-    walkers += walkers % 2
     if walkers < 2 * dim:
         raise FitError(f"{walkers} walkers are too few for {dim} parameters; use at least {2 * dim}")
     pos = initial_ensemble(log_prob, center, scale, walkers, rng)
