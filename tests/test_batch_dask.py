@@ -117,3 +117,21 @@ def test_collision_cache_is_safe_with_four_processes(tmp_path):
     assert [r[1] for r in results] == [0, 0, 0, 0]  # no reader ever saw a half-written or foreign file
     files = os.listdir(os.path.join(folder, "collision"))
     assert len(files) == 1 and files[0].endswith(".npz")  # no temporary file left behind
+
+
+def test_local_cluster_is_not_started_when_every_job_is_unchanged(sequential, tmp_path, monkeypatch, capsys):
+    manifest, _ = sequential
+    one_job = manifest.parent / "argon_only.toml"
+    one_job.write_text('title = "one job"\nversion = 1\n\n[defaults]\norder = 2\nno-report = true\n\n'
+                       '[jobs.argon]\ntables = ["argon.csv"]\nformula = "Ar"\n', encoding="utf-8")
+    out = tmp_path / "one"
+    assert main(["batch", str(one_job), "--out", str(out), "--jobs", "1"]) == 0
+
+    def no_cluster(*args, **kwargs):
+        raise AssertionError("a local Dask cluster was started although no job had to run")
+
+    monkeypatch.setattr(dask_executor, "LocalCluster", no_cluster)
+    capsys.readouterr()
+    assert main(["batch", str(one_job), "--out", str(out), "--dask-local", "2"]) == 0
+    printed = capsys.readouterr().out
+    assert "1 of 1 jobs unchanged" in printed and "Dask" not in printed

@@ -43,6 +43,7 @@ class DaskExecutor(Executor):
         if (scheduler is None) == (local_workers is None):
             raise UsageError("give either --scheduler tcp://HOST:PORT or --dask-local N, not both")
         self._cluster = None
+        self._closed = False
         if scheduler is not None:
             try:
                 self._client = Client(scheduler, timeout=CONNECT_TIMEOUT, set_as_default=False)
@@ -52,29 +53,51 @@ class DaskExecutor(Executor):
                                   ) from None
             self.workers = len(self._client.scheduler_info().get("workers", {}))
             self.description = f"the Dask cluster at {scheduler} ({self.workers} workers now)"
-        else:
-            self._cluster = LocalCluster(n_workers=int(local_workers), threads_per_worker=1, processes=True,
+        else:  # started when the first job is sent: a rerun that skips every job starts no cluster
+            self._client = None
+            self._local_workers = int(local_workers)
+            self.workers = int(local_workers)
+            self.description = self._local_description("on 127.0.0.1")
+
+    def _local_description(self, where: str) -> str:
+        return f"a local Dask cluster of {self.workers} worker process{'es' if self.workers != 1 else ''} {where}"
+
+    def start(self) -> None:
+        """Start the local cluster (--dask-local) if it is not running; --scheduler is connected already."""
+        self._connected()
+
+    def _connected(self):
+        """The client, starting the local cluster first if it is not running yet."""
+        if self._closed:
+            raise UsageError("this Dask executor was closed")
+        if self._client is None:
+            self._cluster = LocalCluster(n_workers=self._local_workers, threads_per_worker=1, processes=True,
                                          host="127.0.0.1", scheduler_port=0, dashboard_address=None,
                                          silence_logs=logging.ERROR)  # no worker chatter on the terminal
             self._client = Client(self._cluster, set_as_default=False)
-            self.workers = int(local_workers)
-            self.description = (f"a local Dask cluster of {self.workers} worker process"
-                                f"{'es' if self.workers != 1 else ''} at {self._cluster.scheduler_address}")
+            self.description = self._local_description(f"at {self._cluster.scheduler_address}")
+        return self._client
+
+    @property
+    def started(self) -> bool:
+        """True once a client is connected (at once for --scheduler, at the first job for --dask-local)."""
+        return self._client is not None
 
     @property
     def client(self):
         """The :class:`distributed.Client` the jobs are submitted through."""
-        return self._client
+        return self._connected()
 
     @property
     def scheduler_address(self) -> str:
-        return self._client.scheduler.address
+        return self._connected().scheduler.address
 
     def run(self, function, items):
         items = list(items)
-        futures = {self._client.submit(function, item, pure=False): item for item in items}
+        client = self._connected()
+        futures = {client.submit(function, item, pure=False): item for item in items}
         try:
-            for future in as_completed(list(futures), loop=self._client.loop):
+            for future in as_completed(list(futures), loop=client.loop):
                 item = futures[future]
                 try:
                     yield item, future.result(), None
@@ -85,6 +108,7 @@ class DaskExecutor(Executor):
                 future.cancel()
 
     def close(self) -> None:
+        self._closed = True
         if self._client is not None:
             self._client.close()
             self._client = None

@@ -29,6 +29,10 @@ class Executor:
     #: a short name for messages ("sequential", "2 processes", ...)
     description = "executor"
 
+    def start(self) -> None:
+        """Acquire workers before the first job (called only when there are jobs to run, so an
+        executor can stay idle on a rerun that skips everything; nothing to do for most)."""
+
     def run(self, function, items):
         raise NotImplementedError
 

@@ -129,6 +129,7 @@ def run_batch(manifest, out_dir, *, jobs: int | None = None, executor: Executor 
     if todo:
         tasks = [(spec, str(out_dir.resolve()), force or state.wrote(spec.name)) for spec in todo]
         runner = executor if executor is not None else make_executor(jobs, len(todo))
+        runner.start()
         say(f"running {len(todo)} job{'s' if len(todo) != 1 else ''}: {runner.description}")
         with runner if executor is None else _borrowed(runner):
             for done, (task, outcome, error) in enumerate(runner.run(run_job_task, tasks), start=1):
