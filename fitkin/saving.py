@@ -70,8 +70,13 @@ def save_fit(result, out_dir, *, tables=(), posterior=None, report: bool = True,
     written first, and the report's problem comes back as one sentence under
     "report_problem" (see :func:`write_report_safely`).
 
+    With ``force``, files of the replaced fit that this save does not write again
+    (``samples.npz`` of an earlier sampled fit, ``residuals.npz`` of an earlier large one,
+    ``report.html`` when no report is made now) are removed after the new parameter file is
+    written, so that nothing beside it describes another fit.
+
     Returns {"parameters": path, "samples": path (if any), "report": path (if made),
-    "report_problem": str (if the report failed)}.
+    "report_problem": str (if the report failed), "removed": [paths] (if any)}.
     """
     out_dir = Path(out_dir)
     planned = [out_dir / PARAMETERS_NAME]
@@ -83,6 +88,8 @@ def save_fit(result, out_dir, *, tables=(), posterior=None, report: bool = True,
         planned.append(out_dir / REPORT_NAME)
     for p in planned:
         check_can_write(p, force)
+    stale = [p for p in (sidecar_path(out_dir / PARAMETERS_NAME), out_dir / SAMPLES_NAME, out_dir / REPORT_NAME)
+             if p not in planned and p.is_file()] if force and (out_dir / PARAMETERS_NAME).is_file() else []
     paths = {}
     ref = None
     if posterior is not None:
@@ -97,7 +104,22 @@ def save_fit(result, out_dir, *, tables=(), posterior=None, report: bool = True,
             paths["report"] = made
         else:
             paths["report_problem"] = problem
+    removed = _remove_files(stale)
+    if removed:
+        paths["removed"] = removed
     return paths
+
+
+def _remove_files(paths) -> list:
+    """Remove each file; those that could not be removed are left (and not listed)."""
+    done = []
+    for p in paths:
+        try:
+            p.unlink()
+            done.append(p)
+        except OSError:
+            pass
+    return done
 
 
 def write_report_safely(record: dict, out_dir, *, force: bool = False, record_path=None,

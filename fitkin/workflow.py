@@ -231,6 +231,7 @@ def run_fit_job(tables, gas, *, potentials="lj", options: FitOptions | None = No
         written.append(f"Posterior samples written to {saved['samples']}")
     if "report" in saved:
         written.append(f"Report written to {saved['report']}")
+    written += [f"Removed {p} (it belonged to the replaced fit)" for p in saved.get("removed", ())]
     job_warnings = (saved["report_problem"],) if "report_problem" in saved else ()
     written += [f"warning: {w}" for w in job_warnings]
     texts.append("\n".join(written))

@@ -174,3 +174,21 @@ def test_a_small_property_among_many_points_is_kept_whole():
                            deviation_percent=np.zeros(n))
     points = residual_entries(cols, limit=1000)["residuals"]
     assert sum(p["property"] == "second_virial" for p in points) == 40 and len(points) <= 1000
+
+
+def test_forced_small_fit_over_a_big_one_removes_the_old_sidecar_and_report(big_fit, tmp_path, capsys):
+    """--force replaces a fit: files of the old fit that the new one does not write again
+    (its residuals.npz, a report when --no-report is asked now) are removed and named."""
+    table, _ = big_fit
+    out = tmp_path / "fit"
+    assert fit(capsys, "fit", str(table), "--formula", "Ar", "--out", str(out))[0] == 0
+    assert (out / "residuals.npz").is_file() and (out / "report.html").is_file()
+    small = write_table(tmp_path / "small.csv", 40)
+    code, printed, _ = fit(capsys, "fit", str(small), "--formula", "Ar", "--out", str(out), "--force",
+                           "--no-report")
+    assert code == 0
+    assert not (out / "residuals.npz").exists() and not (out / "report.html").exists()
+    assert "Removed" in printed and "residuals.npz" in printed and "report.html" in printed
+    record = json.loads((out / "parameters.json").read_text(encoding="utf-8"))
+    assert "residuals_file" not in record and len(record["residuals"]) == 40
+    assert len(load_parameters(out / "parameters.json").residuals()) == 40
