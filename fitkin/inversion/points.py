@@ -39,7 +39,7 @@ from fitkin.errors import FitError
 from fitkin.potentials import Potential
 from fitkin.theory.transport import TransportModel
 
-__all__ = ["InvertedPoints", "inversion_function", "invert_points"]
+__all__ = ["InvertedPoints", "inversion_function", "invert_points", "point_energies"]
 
 ANGSTROM = 1e-10
 
@@ -124,3 +124,36 @@ def invert_points(model: TransportModel, sigma_m: float, epsilon_over_k: float, 
     _, g = inversion_function(model.potential, t_star, omega22=omega22)
     r = sigma_m * np.sqrt(omega22 * mu_calc / mu)
     return InvertedPoints(temperature=T, r=r, energy_over_k=g * T, inversion_function=g)
+
+
+def point_energies(model: TransportModel, T, epsilon_range):
+    """U_i/k = G(kT_i/ε) T_i as a function of the well depth ε/k of the curve being built.
+
+    The inversion function is (nearly) a universal function of the reduced temperature, so a
+    curve of depth ε must pass through U_i = G(T_i/ε) kT_i at r̄_i, with G taken from the
+    current potential (Maitland & Smith 1972, from memory; the r̄_i do not depend on ε
+    except through the small Sonine factor).  G is interpolated in ln T* on a grid covering
+    ``epsilon_range`` (K, the depths the fit may try), clipped to the model's T* range.
+
+    Returns
+    -------
+    callable ε/k [K] → (n,) U_i/k [K].
+
+    Examples
+    --------
+    >>> from fitkin.potentials import LennardJones
+    >>> f = point_energies(TransportModel(LennardJones(), order=1), [120.0], (100.0, 140.0))
+    >>> round(float(f(120.0)[0]) / 120.0, 2)   # T* = 1: U* = G = -0.74 (see inversion_function)
+    -0.74
+    """
+    T = np.atleast_1d(np.asarray(T, dtype=float))
+    lo_eps, hi_eps = epsilon_range
+    lo_t, hi_t = model.t_star_range
+    t = np.geomspace(max(T.min() / hi_eps, lo_t), min(T.max() / lo_eps, hi_t), 400)
+    _, g = inversion_function(model.potential, t, omega22=model.omega(2, 2, t))
+    ln_t = np.log(t)
+
+    def energies(epsilon_over_k: float) -> np.ndarray:
+        return np.interp(np.log(T / epsilon_over_k), ln_t, g) * T
+
+    return energies

@@ -1,0 +1,253 @@
+r"""Self-consistent inversion of viscosity (and B(T)) into the pair potential U(r).
+
+The Maitland–Smith iteration: from the current potential U_k, compute Ω(2,2)* and the
+Sonine factor (:class:`~fitkin.theory.transport.TransportModel`), map each measured
+viscosity onto a point (r̄_i, U_i) with the inversion function
+(:func:`~fitkin.inversion.points.invert_points`), fit a smooth curve U_{k+1} through the
+points and the B(T) data (:mod:`fitkin.inversion.curve`), tabulate it, and repeat until the
+points move by less than a fraction of their uncertainty and the curve reproduces every
+viscosity within its u.
+
+References
+----------
+G. C. Maitland and E. B. Smith, Chem. Phys. Lett. 14, 21 (1972); D. W. Gough, G. C. Maitland
+and E. B. Smith, Mol. Phys. 24, 151 (1972) (the iteration, written from memory of those papers).
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from fitkin.errors import FitError, PotentialError
+from fitkin.inference.fitdata import FitData
+from fitkin.inference.leastsq import fit_least_squares
+from fitkin.inversion.curve import EPSILON_STEP, curve_from_potential, fit_curve, tabulate_curve
+from fitkin.inversion.points import invert_points, point_energies
+from fitkin.inversion.spread import curve_uncertainty, perturbed_spread, point_uncertainty
+from fitkin.potentials import LennardJones, Potential, Tabulated
+from fitkin.species import Gas
+from fitkin.theory.transport import TransportModel
+from fitkin.theory.virial import second_virial
+
+__all__ = ["InversionResult", "invert_viscosity", "DEFAULT_TOLERANCE", "FLOOR_FRACTION", "SONINE_ORDER"]
+
+#: Converged when no point moves by more than this fraction of its uncertainty.
+DEFAULT_TOLERANCE = 0.2
+#: Floor of the energy uncertainty each point is weighted with, as a fraction of ε: the
+#: inversion function's own (small) dependence on the potential, which the slope term misses
+#: where the curve is flat (at the well's bottom).  A choice of this module, not a published value.
+FLOOR_FRACTION = 0.003
+#: Sonine approximation used for the viscosity (third, as in the fits).
+SONINE_ORDER = 3
+#: The table's wall reaches this multiple of k·T_max, so its collision integrals cover T_max.
+WALL_TOP_FACTOR = 15.0
+
+
+@dataclass(frozen=True)
+class InversionResult:
+    """The potential recovered from the data (see :func:`invert_viscosity`).
+
+    Attributes
+    ----------
+    temperatures : (n,) K.   r : (n,) m.   energy_over_k : (n,) K: the inverted points.
+    u_energy_over_k : (n,) K, linearised standard uncertainty of each point's U (slope of the
+        curve times the r̄ uncertainty u(μ)/(2μ) · r̄).
+    u_energy_perturbed : None, or (n,) K: spread of the refitted curve at r̄_i over the
+        perturbed data sets (compare with ``curve_u`` at r̄_i).
+    curve : the final potential as a Tabulated.
+    curve_r, curve_energy_over_k, curve_u, curve_probed : (N,) the table (m, K, K linearised
+        uncertainty of the curve, bool inside ``probed_range``).
+    sigma, epsilon_over_k, r_min : of the final curve (m, K, m).
+    probed_range : (r_lo, r_hi) in m.
+    iterations : one dict per iteration.
+    converged : bool.   predicted_viscosity : (n,) Pa s.   start_description : text.
+    tail : dict describing the long-range tail.
+    """
+
+    temperatures: np.ndarray
+    r: np.ndarray
+    energy_over_k: np.ndarray
+    u_energy_over_k: np.ndarray
+    u_energy_perturbed: np.ndarray | None
+    curve: Tabulated
+    curve_r: np.ndarray
+    curve_energy_over_k: np.ndarray
+    curve_u: np.ndarray
+    curve_probed: np.ndarray
+    sigma: float
+    epsilon_over_k: float
+    r_min: float
+    probed_range: tuple
+    iterations: tuple
+    converged: bool
+    predicted_viscosity: np.ndarray
+    start_description: str
+    tail: dict
+    virial_temperatures: np.ndarray | None = None
+    predicted_virial: np.ndarray | None = None
+    seed: int = 20261203
+
+
+def _check(T, viscosity, u_viscosity, molar_mass, virial):
+    T = np.atleast_1d(np.asarray(T, dtype=float))
+    mu = np.atleast_1d(np.asarray(viscosity, dtype=float))
+    u = np.broadcast_to(np.asarray(u_viscosity, dtype=float), T.shape).copy()
+    if not (T.shape == mu.shape):
+        raise FitError(f"T and viscosity need the same length, got {T.size} and {mu.size}")
+    if T.size < 4:
+        raise FitError(f"the inversion needs at least 4 viscosity points, got {T.size}")
+    if not (np.all(np.isfinite(u)) and np.all(u > 0)):
+        raise FitError("every viscosity needs a positive standard uncertainty u for the inversion")
+    if not (isinstance(molar_mass, (int, float)) and molar_mass > 0):
+        raise FitError(f"molar mass must be a positive number in kg/mol, got {molar_mass!r}")
+    order = np.argsort(T)
+    vir = None
+    if virial is not None:
+        tb, b, ub = (np.atleast_1d(np.asarray(v, dtype=float)) for v in virial)
+        ub = np.broadcast_to(ub, tb.shape).copy()
+        if not (tb.shape == b.shape == ub.shape) or not np.all(ub > 0) or not np.all(tb > 0):
+            raise FitError("virial must be (T [K], B [m³/mol], u(B) [m³/mol]) of equal length with u(B) > 0")
+        vir = (tb, b, ub)
+    return T[order], mu[order], u[order], vir
+
+
+def _fit_data(T, mu, u, virial) -> FitData:
+    kinds = [np.full(T.size, "viscosity", dtype=object)]
+    arrays = [(T, mu, u)]
+    if virial is not None:
+        kinds.append(np.full(virial[0].size, "second_virial", dtype=object))
+        arrays.append(virial)
+    n = sum(a[0].size for a in arrays)
+    cat = lambda i: np.concatenate([a[i] for a in arrays])  # noqa: E731
+    return FitData(kind=np.concatenate(kinds), temperature=cat(0), value=cat(1), uncertainty=cat(2),
+                   pressure=np.full(n, np.nan), source=np.full(n, "inversion", dtype=object),
+                   rows=np.arange(1, n + 1), file=np.full(n, "<inversion>", dtype=object), weighted=True)
+
+
+def _start(T, mu, u, molar_mass, virial, start):
+    """(potential, σ, ε/k, text) of the start; None means an LJ least-squares fit of the data."""
+    if start is not None:
+        potential, sigma, eps = start
+        if not isinstance(potential, Potential) or not (sigma > 0 and eps > 0):
+            raise FitError("start must be (Potential, sigma [m], epsilon_over_k [K]) with positive scales")
+        return potential, float(sigma), float(eps), f"given: {potential.describe()}, σ = {sigma / 1e-10:.4f} Å, " \
+                                                     f"ε/k = {eps:.3f} K"
+    gas = Gas(name="inversion", molar_mass=float(molar_mass))
+    fit = fit_least_squares(_fit_data(T, mu, u, virial), gas, LennardJones(), order=SONINE_ORDER, internal=None)
+    sigma = fit.parameters["sigma"].value * 1e-10
+    eps = fit.parameters["epsilon_over_k"].value
+    used = "viscosity and B(T)" if virial is not None else "viscosity"
+    return LennardJones(), sigma, eps, (f"Lennard-Jones 12-6 least-squares fit of the same {used}: "
+                                        f"σ = {sigma / 1e-10:.4f} Å, ε/k = {eps:.3f} K")
+
+
+def _vertical_change(new_r, new_u, old_r, old_u, slope):
+    """Distance in U between two sets of points, measured at the new r̄ along the curve slope."""
+    return (new_u - old_u) - slope * (new_r - old_r)
+
+
+def invert_viscosity(T, viscosity, u_viscosity, *, molar_mass, start=None, virial=None,
+                     max_iterations=10, tolerance=None, perturbed_sets=0, seed=20261203) -> InversionResult:
+    """Invert dilute-gas viscosity (plus B(T)) into the pair potential, self-consistently.
+
+    Parameters
+    ----------
+    T : (n,) K.   viscosity : (n,) Pa s.   u_viscosity : (n,) or scalar, standard uncertainty, Pa s.
+    molar_mass : kg/mol.
+    start : None (a Lennard-Jones least-squares fit of the same data) or
+        (Potential, sigma [m], epsilon_over_k [K]).
+    virial : None or (T [K], B [m³/mol], u(B) [m³/mol]); fixes the well depth.
+    max_iterations : at most this many inversion steps.
+    tolerance : converged when every point moves by less than this fraction of its
+        uncertainty between iterations (default :data:`DEFAULT_TOLERANCE`) and the curve
+        reproduces every viscosity within its u.
+    perturbed_sets : number of data sets drawn from the stated u and refitted (0: none).
+    seed : seed of those draws (recorded in the result).
+
+    Returns
+    -------
+    InversionResult.
+
+    Raises
+    ------
+    FitError : bad input, or a curve that cannot be tabulated.
+
+    References
+    ----------
+    Maitland & Smith, Chem. Phys. Lett. 14, 21 (1972); Gough, Maitland & Smith, Mol. Phys.
+    24, 151 (1972) (from memory); the curve: :mod:`fitkin.inversion.curve`.
+    """
+    T, mu, u_mu, virial = _check(T, viscosity, u_viscosity, molar_mass, virial)
+    tol = DEFAULT_TOLERANCE if tolerance is None else float(tolerance)
+    potential, sigma, eps, start_text = _start(T, mu, u_mu, molar_mass, virial, start)
+    sigma_scale = sigma
+    params = curve_from_potential(potential, sigma, eps)
+    c6_prior = params.c6
+    energy_top = WALL_TOP_FACTOR * T.max()
+    model = TransportModel(potential, order=SONINE_ORDER)
+    history, previous, converged = [], None, False
+    fit = table = None
+    for k in range(1, int(max_iterations) + 1):
+        pts = invert_points(model, sigma, eps, T, mu, molar_mass)
+        slope = eps / sigma * model.potential.reduced_derivative(pts.r / sigma)
+        u_point = point_uncertainty(pts.r, slope, u_mu / mu)
+        u_fit = np.hypot(u_point, FLOOR_FRACTION * eps)
+        r_join = min(float(pts.r.min()), 0.95 * sigma)
+        energies = point_energies(model, T, (EPSILON_STEP[0] * params.epsilon_over_k,
+                                             EPSILON_STEP[1] * params.epsilon_over_k))
+        fit = fit_curve(pts.r, energies, u_fit, params, r_join=r_join, sigma_scale=sigma_scale,
+                        virial=virial, c6_prior=c6_prior)
+        params = fit.curve.params
+        try:
+            table, grid_r, grid_u = tabulate_curve(fit.curve, energy_top)
+        except PotentialError as exc:
+            raise FitError(f"iteration {k}: the curve through the inverted points is not a usable potential "
+                           f"({exc}); the data may not determine the well (add B(T) data)") from None
+        model = TransportModel(table, order=SONINE_ORDER)
+        sigma, eps = table.sigma, table.epsilon_over_k
+        predicted = model.viscosity(T, molar_mass, sigma, eps)
+        deviation = (predicted - mu) / u_mu
+        change = np.inf if previous is None else float(np.max(np.abs(
+            _vertical_change(pts.r, pts.energy_over_k, previous.r, previous.energy_over_k, slope)) / u_fit))
+        entry = {"iteration": k, "rms_relative": float(np.sqrt(np.mean(((predicted - mu) / mu) ** 2))),
+                 "max_normalised": float(np.max(np.abs(deviation))), "point_change": change,
+                 "sigma": sigma, "epsilon_over_k": eps}
+        if virial is not None:
+            b_pred = second_virial(table, virial[0], sigma, eps)
+            entry["virial_rms_normalised"] = float(np.sqrt(np.mean(((b_pred - virial[1]) / virial[2]) ** 2)))
+        history.append(entry)
+        previous = pts
+        if change < tol and entry["max_normalised"] <= 1.0:
+            converged = True
+            break
+    return _result(T, mu, u_mu, molar_mass, virial, pts, u_point, u_fit, fit, table, grid_r, grid_u, model,
+                   history, converged, start_text, perturbed_sets, seed, c6_prior, predicted)
+
+
+def _result(T, mu, u_mu, molar_mass, virial, pts, u_point, u_fit, fit, table, grid_r, grid_u, model,
+            history, converged, start_text, perturbed_sets, seed, c6_prior, predicted) -> InversionResult:
+    lo, hi = float(pts.r.min()), float(pts.r.max())
+    curve_u = curve_uncertainty(fit, grid_r, u_point, u_fit, virial)
+    spread = None
+    if perturbed_sets:
+        spread = perturbed_spread(model, table, fit, T, mu, u_mu, molar_mass, virial, pts, u_fit,
+                                  int(perturbed_sets), int(seed), c6_prior)
+    c6, c8 = table._tail
+    s, e = table.sigma, table.epsilon_over_k
+    tail = {"form": "-C6/r^6 - C8/r^8 matched in value and slope to the fitted curve",
+            "starts_at_m": float(grid_r[-1]), "starts_at_sigma": float(grid_r[-1] / s),
+            "C6_K_m6": float(c6 * e * s ** 6), "C8_K_m8": float(c8 * e * s ** 8),
+            "curve_C6_K_m6": float(fit.curve.params.c6),
+            "between": "from the outer edge of the data to the tail the curve is the fitted Morse/long-range "
+                       "form, which itself tends to -C6/r^6",
+            "inner_wall": f"Born-Mayer exponential inside {fit.curve.r_join / 1e-10:.4f} Å, slope "
+                          f"{fit.curve.wall_slope * 1e-10:.3f} per Å"}
+    b_pred = None if virial is None else second_virial(table, virial[0], s, e)
+    return InversionResult(
+        temperatures=T, r=pts.r, energy_over_k=pts.energy_over_k, u_energy_over_k=u_point,
+        u_energy_perturbed=spread, curve=table, curve_r=grid_r, curve_energy_over_k=grid_u,
+        curve_u=curve_u, curve_probed=(grid_r >= lo) & (grid_r <= hi), sigma=s, epsilon_over_k=e,
+        r_min=float(table.r_min_star * s), probed_range=(lo, hi), iterations=tuple(history),
+        converged=converged, predicted_viscosity=predicted, start_description=start_text, tail=tail,
+        virial_temperatures=None if virial is None else virial[0], predicted_virial=b_pred, seed=int(seed))
