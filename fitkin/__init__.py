@@ -11,6 +11,8 @@ The main entry points, importable from the top level:
 * :func:`run_fit_job` — the whole ``fitkin fit`` workflow (several shapes, comparison,
   sampling, saving) in one call; returns a :class:`FitJobResult`.
 * :func:`load_parameters` — a saved fit, for reuse downstream.
+* :func:`fit_interaction` — the unlike pair σ12, ε12/k of two saved fits from mixture data
+  (``fitkin mix``); :func:`read_mixture_table` reads such data.
 * :func:`plan_measurements` — which temperatures to measure next (``fitkin plan``); returns
   a :class:`fitkin.plan.PlanResult`.
 * :func:`run_batch` — every job of a batch manifest (``fitkin batch``).
@@ -43,6 +45,8 @@ _LAZY = {
     "plan_measurements": "fitkin.plan",
     "run_batch": "fitkin.batch",
     "open_library": "fitkin.library",
+    "fit_interaction": "fitkin.interaction",
+    "read_mixture_table": "fitkin.io.mixture_tables",
 }
 
 __all__ = ["__version__", *_LAZY]

@@ -9,8 +9,8 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-__all__ = ["PROPERTY_KINDS", "SI_UNITS", "SIGNED_KINDS", "PRESSURE_KINDS", "PropertySeries",
-           "MeasuredTable"]
+__all__ = ["PROPERTY_KINDS", "SI_UNITS", "SIGNED_KINDS", "PRESSURE_KINDS", "MIXTURE_KINDS",
+           "MIXTURE_SI_UNITS", "MIXTURE_SERIES_KINDS", "PropertySeries", "MeasuredTable", "MixtureTable"]
 
 #: Property kinds fitkin can read and fit, with their SI units.
 SI_UNITS = {
@@ -27,6 +27,18 @@ SIGNED_KINDS = ("second_virial",)
 #: so every point needs its pressure.
 PRESSURE_KINDS = ("self_diffusion",)
 
+#: Measured kinds of a binary-mixture table (:class:`MixtureTable`), with their SI units.
+MIXTURE_SI_UNITS = {
+    "mixture viscosity": "Pa s",
+    "mixture conductivity": "W/(m K)",
+    "binary diffusion": "m^2/s",
+}
+MIXTURE_KINDS = tuple(MIXTURE_SI_UNITS)
+#: Column kind of a mixture table's :class:`PropertySeries` → its :data:`MIXTURE_KINDS` name:
+#: in a table with a composition column, a viscosity column holds the mixture's viscosity.
+MIXTURE_SERIES_KINDS = {"viscosity": "mixture viscosity", "conductivity": "mixture conductivity",
+                        "binary_diffusion": "binary diffusion"}
+
 
 @dataclass(frozen=True)
 class PropertySeries:
@@ -34,7 +46,7 @@ class PropertySeries:
 
     Attributes
     ----------
-    kind : one of :data:`PROPERTY_KINDS`.
+    kind : one of :data:`PROPERTY_KINDS`, or ``"binary_diffusion"`` in a mixture table.
     temperature : (n,) K.
     value : (n,) SI (Pa s for viscosity, W/(m K) for conductivity, m²/s for self-diffusion,
         m³/mol for the second virial coefficient).
@@ -60,7 +72,7 @@ class PropertySeries:
     uncertainty_kind: str
 
     def __post_init__(self):
-        if self.kind not in PROPERTY_KINDS:
+        if self.kind not in PROPERTY_KINDS and self.kind not in MIXTURE_SERIES_KINDS:
             raise ValueError(f"unknown property kind {self.kind!r}; expected one of {PROPERTY_KINDS}")
         n = len(self.temperature)
         for name in ("value", "uncertainty", "pressure", "source", "rows"):
@@ -99,3 +111,60 @@ class MeasuredTable:
             if s.kind == kind:
                 return s
         return None
+
+
+@dataclass(frozen=True)
+class MixtureTable:
+    """Every point read from one binary-mixture table, in SI (see :mod:`fitkin.io.mixture_tables`).
+
+    Attributes
+    ----------
+    path, sha256, warnings, columns : as for :class:`MeasuredTable`.
+    names : (first, second), the pair's gases as the reader was told them; ``x1`` refers to the first.
+    temperature : (n,) K.
+    x1 : (n,) mole fraction of the FIRST gas of the pair, 0 to 1 (the pure limits included);
+        NaN for binary-diffusion points of a table without a composition column.
+    kind : (n,) str, each one of :data:`MIXTURE_KINDS`.
+    value : (n,) SI (Pa s, W/(m K), m²/s).
+    uncertainty : (n,) absolute standard uncertainty in SI; NaN where none is stated.
+    pressure : (n,) Pa; always stated for binary diffusion, NaN where not stated otherwise.
+    source : (n,) str labels; rows : (n,) int, each point's row in its file.
+    composition : the composition column's header as written, or None.
+    """
+
+    path: str
+    sha256: str
+    names: tuple[str, str]
+    temperature: np.ndarray
+    x1: np.ndarray
+    kind: np.ndarray
+    value: np.ndarray
+    uncertainty: np.ndarray
+    pressure: np.ndarray
+    source: np.ndarray
+    rows: np.ndarray
+    composition: str | None = None
+    warnings: tuple[str, ...] = ()
+    columns: tuple[str, ...] = field(default=())
+
+    def __post_init__(self):
+        n = len(self.temperature)
+        for name in ("x1", "kind", "value", "uncertainty", "pressure", "source", "rows"):
+            if len(getattr(self, name)) != n:
+                raise ValueError(f"MixtureTable.{name} has length {len(getattr(self, name))}, expected {n}")
+        unknown = set(map(str, self.kind)) - set(MIXTURE_KINDS)
+        if unknown:
+            raise ValueError(f"unknown mixture kinds {sorted(unknown)}; expected some of {MIXTURE_KINDS}")
+
+    def __len__(self) -> int:
+        return len(self.temperature)
+
+    @property
+    def kinds(self) -> tuple[str, ...]:
+        """The kinds present, in the order of :data:`MIXTURE_KINDS`."""
+        present = set(map(str, self.kind))
+        return tuple(k for k in MIXTURE_KINDS if k in present)
+
+    @property
+    def has_uncertainty(self) -> bool:
+        return bool(np.all(np.isfinite(self.uncertainty)))

@@ -261,11 +261,9 @@ def test_temperature_without_property_value_is_warned(tmp_path):
 
 def test_only_kinds_fitkin_fits_become_series(tmp_path, monkeypatch):
     # a registered property kind not (yet) in PROPERTY_KINDS: its cells are parsed, then ignored
-    import fitkin.io.assemble as assemble
-    import fitkin.io.header_checks as header_checks
+    from dataclasses import replace
     import fitkin.io.tables as tables
-    monkeypatch.setattr(header_checks, "PROPERTY_KINDS", ("viscosity",))
-    monkeypatch.setattr(assemble, "PROPERTY_KINDS", ("viscosity",))
+    monkeypatch.setattr(tables, "PURE_LAYOUT", replace(tables.PURE_LAYOUT, kinds=("viscosity",)))
     path = write(tmp_path, "m.csv", "T [K],viscosity [uPa s],k [mW/(m K)]\n300,22.7,17.8\n")
     table = tables.read_table(path)
     assert [s.kind for s in table.series] == ["viscosity"]

@@ -38,15 +38,21 @@ class TableAssembler:
     body : the data rows as (row number, cells).
     pressure_limit : Pa, or None.
     default_pressure : Pa, or None; the pressure of points whose row states none (the kinds
-        of :data:`~fitkin.measurements.PRESSURE_KINDS` need one).
+        of ``pressure_kinds`` need one).
+    kinds : the property kinds made into series (default :data:`~fitkin.measurements.PROPERTY_KINDS`;
+        a mixture table's differ); pressure_kinds : those of them that depend on pressure.
 
     After :meth:`run`: ``series`` (one PropertySeries per property with values, in the order
-    of PROPERTY_KINDS), ``problems`` (InputErrors) and ``warnings`` (str).
+    of ``kinds``), ``composition`` ({column index: its numbers as written, over ``rows``} for
+    the composition columns of a mixture table), ``problems`` (InputErrors) and ``warnings`` (str).
     """
 
     def __init__(self, file: str, specs: list[ColumnSpec], body: list[tuple[int, list]],
-                 pressure_limit: float | None, default_pressure: float | None = None):
+                 pressure_limit: float | None, default_pressure: float | None = None, *,
+                 kinds=PROPERTY_KINDS, pressure_kinds=PRESSURE_KINDS):
         self.file = file
+        self.kinds, self.pressure_kinds = tuple(kinds), tuple(pressure_kinds)
+        self.composition: dict[int, np.ndarray] = {}
         self.default_pressure = default_pressure
         self.specs = specs
         self.body = body
@@ -73,7 +79,7 @@ class TableAssembler:
         """Drop the rows once the numbers are parsed, keeping the cells of the columns still
         read (the source labels, and the parsed columns for the messages about blank cells):
         a big table's cells are most of the memory its reading takes."""
-        keep = {s.index for s in self.specs if s.role in ("quantity", "uncertainty", "source")}
+        keep = {s.index for s in self.specs if s.role in ("quantity", "uncertainty", "source", "composition")}
         for index in keep:
             self.column(index)
         self._columns = {i: c for i, c in self._columns.items() if i in keep}
@@ -89,13 +95,14 @@ class TableAssembler:
 
     def run(self) -> None:
         self._check_stray_cells()
-        numeric = [s for s in self.specs if s.role in ("quantity", "uncertainty")]
+        numeric = [s for s in self.specs if s.role in ("quantity", "uncertainty", "composition")]
         columns = [self.column(s.index) for s in numeric]
         decimal_comma = False
         if not all(has_no_comma(c) for c in columns):
             decimal_comma, _ = detect_decimal_comma(c for column in columns for c in column)
         raw = {s.index: self._parse_column(s, decimal_comma) for s in numeric}
         del columns
+        self.composition = {s.index: raw[s.index] for s in numeric if s.role == "composition"}
         self._release_cells()
         quantities: dict[str, ColumnSpec] = {}
         for s in self.specs:
@@ -113,7 +120,7 @@ class TableAssembler:
         pressure = self._pressure(quantities, raw, si)
         sources = self._sources()
         measured_any = np.zeros(len(self.rows), dtype=bool)
-        for kind in PROPERTY_KINDS:
+        for kind in self.kinds:
             spec = quantities.get(kind)
             if spec is None:
                 continue
@@ -125,7 +132,7 @@ class TableAssembler:
             if spec.kind.positive:
                 self.problems += validate.check_positive(spec, values, si[kind], self.rows, self.file)
             point_pressure = self._header_pressure(spec, values, pressure)
-            if kind in PRESSURE_KINDS:
+            if kind in self.pressure_kinds:
                 point_pressure = self._pressure_of_points(spec, values, point_pressure, quantities)
                 scale = point_pressure / DIFFUSION_REFERENCE_PRESSURE
                 self.problems += validate.check_plausible(
@@ -140,7 +147,7 @@ class TableAssembler:
             if spec.role == "uncertainty" and spec.kind.role != "property" and spec.unit is not None:
                 self._unused_uncertainty(spec, raw, si)
             if spec.role == "quantity" and spec.kind.role == "property" \
-                    and spec.kind.name not in PROPERTY_KINDS:
+                    and spec.kind.name not in self.kinds:
                 self.warnings.append(f"{self.file}: column '{spec.header}' holds {spec.kind.label}, "
                                      "which fitkin does not fit; ignored")
         idle = np.isfinite(kelvin) & ~measured_any

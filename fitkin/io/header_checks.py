@@ -32,11 +32,12 @@ class UnitRowHint:
 
 
 def require_columns(specs: list[ColumnSpec], cells: list[str], row: int, file: str, *,
-                    unit_row: UnitRowHint | None = None) -> None:
+                    unit_row: UnitRowHint | None = None, kinds=PROPERTY_KINDS) -> None:
     """Raise an :class:`InputError` when the header lacks a temperature or a property column.
 
     The message lists the header cells as read and names those that are no quantity fitkin
     knows; ``unit_row`` (from :func:`unit_row_hint`) adds that the next row looks like units.
+    ``kinds`` are the property kinds that count (a mixture table's differ from a pure one's).
     """
     header_looks_numeric = bool(cells) and all(_looks_numeric(c) for c in cells if c)
     missing_header = ("the first non-comment row is read as the header, and it holds numbers; "
@@ -50,7 +51,7 @@ def require_columns(specs: list[ColumnSpec], cells: list[str], row: int, file: s
         raise InputError(f"the header row has a single cell ('{single}')", file=file, row=row,
                          hint=hint)
     has_temperature = any(s.role == "quantity" and s.kind.role == "temperature" for s in specs)
-    has_property = any(s.role == "quantity" and s.kind.name in PROPERTY_KINDS for s in specs)
+    has_property = any(s.role == "quantity" and s.kind.name in kinds for s in specs)
     if has_temperature and has_property:
         return
     what = "temperature" if not has_temperature else "property"
@@ -60,7 +61,7 @@ def require_columns(specs: list[ColumnSpec], cells: list[str], row: int, file: s
     if not has_temperature:
         advice = "name one column 'T', 'temperature' or 'temp' with its unit, e.g. 'T [K]'"
     else:
-        names = " or ".join(f"'{k.synonyms[0]}'" for k in QUANTITY_KINDS if k.name in PROPERTY_KINDS)
+        names = " or ".join(f"'{k.synonyms[0]}'" for k in QUANTITY_KINDS if k.name in kinds)
         advice = f"name a column {names} (or a synonym) with its unit, e.g. 'viscosity [µPa s]'"
     if unit_row is not None:
         advice = f"{unit_row.message}: {unit_row.hint}; and {advice}"

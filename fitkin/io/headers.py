@@ -21,6 +21,7 @@ import pint
 
 from fitkin import units
 from fitkin.errors import InputError, UnitError
+from fitkin.io.composition import is_composition_header
 from fitkin.io.quantities import (QUANTITY_KINDS, SOURCE_NAMES, QuantityKind, lookup_kind,
                                   normalize_name)
 
@@ -47,7 +48,8 @@ class ColumnSpec:
     index : 0-based position in the row.
     header : the header cell as found.
     letter : spreadsheet column letter (A, B, ..., AA).
-    role : ``"quantity"``, ``"uncertainty"``, ``"source"``, ``"ignored"`` or ``"blank"``.
+    role : ``"quantity"``, ``"uncertainty"``, ``"source"``, ``"composition"`` (``x(Ar) [%]``, a
+        mixture table's; see :mod:`fitkin.io.composition`), ``"ignored"`` or ``"blank"``.
     kind : the quantity (of the value, or of the value an uncertainty belongs to), or None.
     unit : the parsed unit (None for source/ignored/blank columns or an unusable unit).
     unit_text : the unit as written in the header, or as given by ``units=``.
@@ -211,6 +213,8 @@ def parse_header(cells, *, row: int, file: str,
 
 
 def _quantity_spec(index, header, letter, overrides, where, problems, warnings, not_measured) -> ColumnSpec:
+    if is_composition_header(header):
+        return ColumnSpec(index, header, letter, "composition")
     name, unit_text = split_header(header)
     if normalize_name(name) in SOURCE_NAMES:
         return ColumnSpec(index, header, letter, "source")

@@ -96,6 +96,16 @@ QUANTITY_KINDS: tuple[QuantityKind, ...] = (
         common_units=("cm²/s", "m²/s", "mm²/s", "cm²/h", "ft²/s"),
     ),
     QuantityKind(
+        name="binary_diffusion", label="binary diffusion coefficient", role="property",
+        si_unit="m^2/s",
+        synonyms=("D12", "D_12", "binary diffusion", "binary diffusion coefficient", "interdiffusion coefficient",
+                  "mutual diffusion coefficient"),
+        # read only from mixture tables (fitkin.io.mixture_tables); the window is the
+        # self-diffusion one, for D12 scaled to 0.1 MPa as well
+        plausible=(1.0e-7, 1.0e-2), typical=2.0e-5,
+        common_units=("cm²/s", "m²/s", "mm²/s", "cm²/h", "ft²/s"),
+    ),
+    QuantityKind(
         name="second_virial", label="second virial coefficient", role="property",
         si_unit="m^3/mol",
         synonyms=("B", "second virial coefficient", "B2", "second virial", "virial coefficient"),

@@ -29,21 +29,61 @@ import os
 import shlex
 from collections.abc import Iterable, Mapping
 from contextlib import contextmanager
+from dataclasses import dataclass
 from pathlib import Path
+from typing import Callable
+
+import numpy as np
 
 from fitkin.errors import InputError, InputProblems, UnitError
 from fitkin.io.assemble import TableAssembler
 from fitkin.io.cells import CellGrid
 from fitkin.io.grid import read_grid
 from fitkin.io.header_checks import require_columns, unit_row_hint
-from fitkin.io.headers import parse_header, parse_unit_overrides
+from fitkin.io.headers import ColumnSpec, parse_header, parse_unit_overrides
 from fitkin.io.numbers import is_blank, strip_invisible
-from fitkin.measurements import MeasuredTable
+from fitkin.measurements import PRESSURE_KINDS, PROPERTY_KINDS, MeasuredTable
 
-__all__ = ["read_table", "read_tables", "DEFAULT_PRESSURE_LIMIT"]
+__all__ = ["read_table", "read_tables", "read_table_body", "TableLayout", "TableBody", "PURE_LAYOUT",
+           "DEFAULT_PRESSURE_LIMIT"]
 
 #: Pa; points stated above it are flagged (see the module docstring).
 DEFAULT_PRESSURE_LIMIT = 1.0e6
+
+
+@dataclass(frozen=True)
+class TableLayout:
+    """What a kind of table holds: the property kinds read into series, those that need a
+    pressure, and a check of the header's column specs (raises InputError) run before the body."""
+    kinds: tuple[str, ...]
+    pressure_kinds: tuple[str, ...]
+    check_columns: Callable[[list[ColumnSpec], int, str], None]
+
+
+@dataclass(frozen=True)
+class TableBody:
+    """A table read with a :class:`TableLayout`: the MeasuredTable, the header's row number,
+    every data row's number (``rows``, ascending) and the composition columns' numbers as
+    written ({spec: (len(rows),) array})."""
+    table: MeasuredTable
+    header_row: int
+    rows: np.ndarray
+    composition: dict
+
+
+def _refuse_mixture_columns(specs: list[ColumnSpec], row: int, file: str) -> None:
+    """A pure-gas table must not hold a composition or binary-diffusion column."""
+    for spec in specs:
+        if spec.role == "composition" or (spec.role == "quantity" and spec.kind.name == "binary_diffusion"):
+            what = "a composition" if spec.role == "composition" else "a binary-diffusion"
+            raise InputError(f"this is a binary-mixture table ({what} column): it cannot be fitted as data of "
+                             "one gas", file=file, row=row, column=spec.header,
+                             hint="fit the unlike pair from it with 'fitkin mix FIRST.json SECOND.json TABLE "
+                             "--out DIR' (in Python fitkin.fit_interaction)")
+
+
+#: The layout of a pure-gas table.
+PURE_LAYOUT = TableLayout(PROPERTY_KINDS, PRESSURE_KINDS, _refuse_mixture_columns)
 
 
 def read_table(path, *, sheet: str | int | None = None, units: Mapping[str, str] | None = None,
@@ -76,6 +116,14 @@ def read_table(path, *, sheet: str | int | None = None, units: Mapping[str, str]
     InputProblems : every problem found in the header and the cells, each an InputError
         naming file, row and column.
     """
+    return read_table_body(path, PURE_LAYOUT, sheet=sheet, units=units, pressure_limit=pressure_limit,
+                           default_pressure=default_pressure).table
+
+
+def read_table_body(path, layout: TableLayout, *, sheet=None, units=None,
+                    pressure_limit: float | None = DEFAULT_PRESSURE_LIMIT,
+                    default_pressure: float | None = None) -> TableBody:
+    """Read one table of the given layout (options and errors as :func:`read_table`)."""
     if pressure_limit is not None and not pressure_limit > 0:
         raise InputError(f"the pressure limit must be positive, got {pressure_limit!r}")
     if default_pressure is not None and not (default_pressure > 0 and default_pressure < float("inf")):
@@ -84,7 +132,7 @@ def read_table(path, *, sheet: str | int | None = None, units: Mapping[str, str]
     file = _file_name(path)
     data = _read_bytes(Path(path), file)
     with _bulk_allocation():
-        return _read_table(data, file, sheet, overrides, pressure_limit, default_pressure)
+        return _read_table(data, file, sheet, overrides, pressure_limit, default_pressure, layout)
 
 
 @contextmanager
@@ -105,7 +153,8 @@ def _bulk_allocation():
             gc.enable()
 
 
-def _read_table(data: bytes, file: str, sheet, overrides, pressure_limit, default_pressure) -> MeasuredTable:
+def _read_table(data: bytes, file: str, sheet, overrides, pressure_limit, default_pressure,
+                layout: TableLayout) -> TableBody:
     grid = read_grid(data, file, sheet=sheet)
     if not grid.rows:
         raise _empty(grid, file)
@@ -115,9 +164,10 @@ def _read_table(data: bytes, file: str, sheet, overrides, pressure_limit, defaul
         header_cells.pop()  # trailing empty cells of spreadsheet exports
     specs, problems, warnings = parse_header(header_cells, row=header_row, file=file,
                                              overrides=overrides)
+    layout.check_columns(specs, header_row, file)
     unit_row = unit_row_hint(specs, grid.rows[1] if len(grid.rows) > 1 else None, header_row)
     try:
-        require_columns(specs, header_cells, header_row, file, unit_row=unit_row)
+        require_columns(specs, header_cells, header_row, file, unit_row=unit_row, kinds=layout.kinds)
     except InputError as exc:
         raise _with_sheet_hint(exc, grid) from None
     if unit_row is not None and any(isinstance(p, UnitError) for p in problems):
@@ -125,7 +175,8 @@ def _read_table(data: bytes, file: str, sheet, overrides, pressure_limit, defaul
     body = grid.rows[1:]
     if not body:
         raise InputError("the table has a header but no data rows", file=file, row=header_row)
-    builder = TableAssembler(file, specs, body, pressure_limit, default_pressure)
+    builder = TableAssembler(file, specs, body, pressure_limit, default_pressure, kinds=layout.kinds,
+                             pressure_kinds=layout.pressure_kinds)
     notes = grid.notes
     del grid, body  # the assembler drops the cells once it has parsed them
     builder.run()
@@ -134,13 +185,15 @@ def _read_table(data: bytes, file: str, sheet, overrides, pressure_limit, defaul
         raise InputProblems(sorted(problems, key=lambda p: p.row or 0))
     if not builder.series:
         raise InputError("no property values in the table (every property cell is empty)", file=file)
-    return MeasuredTable(
+    table = MeasuredTable(
         path=file,
         sha256=hashlib.sha256(data).hexdigest(),
         series=tuple(builder.series),
         warnings=tuple(notes + warnings + builder.warnings),
         columns=tuple(header_cells),
     )
+    composition = {spec: builder.composition[spec.index] for spec in specs if spec.role == "composition"}
+    return TableBody(table, header_row, builder.rows, composition)
 
 
 def read_tables(paths: Iterable, **kwargs) -> tuple[MeasuredTable, ...]:

@@ -1,0 +1,41 @@
+"""Shared helpers of the mixture-fit tests: pure-gas parameter records and synthetic tables.
+
+The pure gases' Lennard-Jones parameters are published sets recalled from memory
+(Hirschfelder, Curtiss & Bird 1954, Table I-A, from viscosity); their uncertainties are
+invented for the tests. The mixture tables are synthetic (fitkin.interaction.synthetic).
+"""
+import numpy as np
+
+from fitkin.fitted import FittedGas
+from fitkin.io.parameter_file import SCHEMA_NAME, SCHEMA_VERSION, write_parameter_file
+from fitkin.species import Gas
+
+__all__ = ["pure_record", "pure_gas", "write_pure", "AR", "HE", "TRUE_SIGMA12", "TRUE_EPS12"]
+
+#: (formula, σ Å, ε/k K, u(σ) Å, u(ε/k) K, correlation)
+AR = ("Ar", 3.418, 124.0, 0.004, 0.4, -0.8)
+HE = ("He", 2.576, 10.22, 0.004, 0.08, -0.8)
+#: The unlike pair the synthetic data are made with (not a combining rule's values).
+TRUE_SIGMA12, TRUE_EPS12 = 3.05, 30.0
+
+
+def pure_record(spec, order=1, collision="neufeld"):
+    formula, s, e, us, ue, rho = spec
+    cov = [[us * us, rho * us * ue], [rho * us * ue, ue * ue]]
+    return {"schema": SCHEMA_NAME, "schema_version": SCHEMA_VERSION,
+            "gas": Gas.from_formula(formula).to_dict(),
+            "potential": {"name": "lj", "shape_parameters": {}, "free_shape": []},
+            "parameters": {"sigma": {"value": s, "stderr": us, "unit": "angstrom", "varied": True},
+                           "epsilon_over_k": {"value": e, "stderr": ue, "unit": "K", "varied": True}},
+            "covariance": {"names": ["sigma", "epsilon_over_k"], "matrix": cov},
+            "theory": {"sonine_order": order, "collision_integrals": collision},
+            "data": {"temperature_range_K": [200.0, 1000.0]}}
+
+
+def pure_gas(spec, **kw):
+    return FittedGas(pure_record(spec, **kw))
+
+
+def write_pure(path, spec, **kw):
+    write_parameter_file(pure_record(spec, **kw), path)
+    return str(path)
