@@ -135,11 +135,14 @@ def _pmul(a, b):
     return out
 
 
-def _trial_functions(rank, p_max, shifted, nodes, d):
-    """Trial functions F_p(G + u) for p = 0..p_max as polynomial arrays.
+def _trial_functions(rank, p_max, shifted, nodes, d, beta=1.0):
+    """Trial functions F_p(G + β u) for p = 0..p_max as polynomial arrays.
 
     ``shifted`` is "w" for u = a (sin χ, 0, cos χ), the two array axes being the powers of
     a·sin χ and a·cos χ; or "u" for u = a e_z, the second axis holding the power of a.
+    ``nodes`` are the points G (already scaled by the caller); ``beta`` scales the shift (1
+    for the equal-mass brackets of this module; ±(m_j/(m_i+m_j))^{1/2} for the unequal-mass
+    ones of :mod:`fitkin.theory.mixture_brackets`).
     Returns an array (p_max + 1, components, N, d, d).
     """
     n = nodes.shape[0]
@@ -151,8 +154,8 @@ def _trial_functions(rank, p_max, shifted, nodes, d):
 
     w = [constant(nodes[:, 0]), constant(nodes[:, 1]), constant(nodes[:, 2])]
     if shifted == "w":
-        w[0][:, 1, 0] = 1.0
-    w[2][:, 0, 1] = 1.0
+        w[0][:, 1, 0] = beta
+    w[2][:, 0, 1] = beta
     w2 = _pmul(w[0], w[0]) + _pmul(w[1], w[1]) + _pmul(w[2], w[2])
     if rank == "vector":
         components, index = w, Fraction(3, 2)
