@@ -16,6 +16,7 @@ The main entry points, importable from the top level:
 * :func:`plan_measurements` — which temperatures to measure next (``fitkin plan``); returns
   a :class:`fitkin.plan.PlanResult`.
 * :func:`run_batch` — every job of a batch manifest (``fitkin batch``).
+* :func:`load_interaction` — a fitted unlike pair (``fitkin mix``): mixture μ, k, D12 with bands.
 * :func:`open_library` — the parameter library (SQLite): ``open_library("fits.sqlite")["argon"]``.
 """
 from importlib import import_module
@@ -47,6 +48,8 @@ _LAZY = {
     "open_library": "fitkin.library",
     "fit_interaction": "fitkin.interaction",
     "read_mixture_table": "fitkin.io.mixture_tables",
+    "load_interaction": "fitkin.interaction",
+    "FittedInteraction": "fitkin.interaction",
 }
 
 __all__ = ["__version__", *_LAZY]

@@ -12,9 +12,9 @@ from pathlib import Path
 import numpy as np
 import pandas as pd
 
-from .errors import FitkinError, OutOfRangeError, ParameterFileError, UsageError
+from .errors import FitkinError, ParameterFileError, UsageError
 from .inference.model import ANGSTROM, ForwardModel, is_monatomic
-from .inference.posterior import posterior_draws, predictive_band
+from .inference.posterior import band_over_draws, posterior_draws, predictive_band
 from .io.parameter_file import read_parameter_file
 from .io.record_check import check_record
 from .io.residuals import RESIDUAL_FIELDS, read_residuals
@@ -205,19 +205,7 @@ class FittedGas:
             draws = posterior_draws(self.record, Path(self.path).parent, max_draws=BAND_DRAWS)
             return predictive_band(draws, kind, T, self._evaluate, band=band, pressure=pressure,
                                    max_draws=BAND_DRAWS)
-        values = []
-        for th in self._draws(BAND_DRAWS):
-            try:
-                values.append(self._evaluate(kind, th, T, pressure))
-            except OutOfRangeError:
-                continue  # a draw outside what the model covers (T* range, polar-correction range)
-        if len(values) < 0.9 * BAND_DRAWS:
-            raise OutOfRangeError(f"{BAND_DRAWS - len(values)} of {BAND_DRAWS} parameter draws fall outside the "
-                                  "range the model covers at these temperatures; no reliable band can be given")
-        draws = np.array(values)
-        q = 0.5 - band / 2, 0.5, 0.5 + band / 2
-        lo, med, hi = np.quantile(draws, q, axis=0)
-        return med, lo, hi
+        return band_over_draws(self._draws(BAND_DRAWS), lambda th: self._evaluate(kind, th, T, pressure), band)
 
     def viscosity(self, T, band: float | None = None):
         """μ(T) in Pa s."""

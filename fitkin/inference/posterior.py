@@ -22,13 +22,13 @@ from pathlib import Path
 
 import numpy as np
 
-from ..errors import FitkinError, ParameterFileError
+from ..errors import FitkinError, OutOfRangeError, ParameterFileError
 from ..formatting import count_of, format_interval
 from ..io.atomic import write_bytes_atomic
 from .diagnostics import Diagnostics
 
 __all__ = ["Posterior", "save_samples", "load_samples", "posterior_draws", "predictive_band",
-           "SAMPLES_NAME", "PERCENTILES", "MIN_DRAWS"]
+           "band_over_draws", "SAMPLES_NAME", "PERCENTILES", "MIN_DRAWS"]
 
 SAMPLES_NAME = "samples.npz"
 #: Reported percentiles: median, ±1σ-equivalent (16/84) and 95 % (2.5/97.5) central intervals.
@@ -325,4 +325,26 @@ def predictive_band(draws, kind: str, T, evaluate, *, band: float = 0.95, pressu
     T = np.atleast_1d(np.asarray(T, dtype=float))
     values = np.array([evaluate(kind, {**(base or {}), **th}, T, pressure) for th in thetas])
     lo, med, hi = np.quantile(values, [0.5 - band / 2, 0.5, 0.5 + band / 2], axis=0)
+    return med, lo, hi
+
+
+def band_over_draws(draws, evaluate, band: float, *, usable: float = 0.9):
+    """(median, lower, upper) of ``evaluate(draw)`` over ``draws``: pointwise quantiles.
+
+    A draw the model cannot evaluate (``evaluate`` raises :class:`OutOfRangeError`: a T*
+    outside the collision-integral tables, a polar correction out of its range) is left out;
+    when fewer than ``usable`` of the draws remain, no reliable band exists and
+    :class:`OutOfRangeError` says how many fell outside.
+    """
+    draws = list(draws)
+    values = []
+    for draw in draws:
+        try:
+            values.append(np.asarray(evaluate(draw), dtype=float))
+        except OutOfRangeError:
+            continue
+    if not draws or len(values) < usable * len(draws):
+        raise OutOfRangeError(f"{len(draws) - len(values)} of {len(draws)} parameter draws fall outside the "
+                              "range the model covers at these temperatures; no reliable band can be given")
+    lo, med, hi = np.quantile(np.array(values), [0.5 - band / 2, 0.5, 0.5 + band / 2], axis=0)
     return med, lo, hi

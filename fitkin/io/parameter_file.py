@@ -24,6 +24,7 @@ from .. import __version__
 from ..errors import ParameterFileError
 from ..measurements import SIGNED_KINDS
 from .atomic import check_can_write, write_text_atomic
+from .json_record import read_json_record
 from .record_check import check_record
 from .residuals import ResidualColumns, residual_entries, write_residuals
 
@@ -123,16 +124,7 @@ def read_parameter_file(path) -> dict:
     """Read and check a parameter file; raise :class:`ParameterFileError` with what is wrong
     (every entry the readers need is checked by :func:`fitkin.io.record_check.check_record`)."""
     p = Path(path)
-    if p.is_dir() and (p / "parameters.json").is_file():
-        raise ParameterFileError(f"{p} is a folder; give the parameter file, e.g. {p / 'parameters.json'}")
-    if not p.is_file():
-        raise ParameterFileError(f"{p}: no such parameter file")
-    try:
-        record = json.loads(p.read_text(encoding="utf-8"))
-    except OSError as exc:
-        raise ParameterFileError(f"{p}: cannot read the parameter file ({exc.strerror or exc})") from None
-    except (UnicodeDecodeError, json.JSONDecodeError) as exc:
-        raise ParameterFileError(f"{p}: not a fitkin parameter file (not valid JSON: {exc})") from None
+    record = read_json_record(p, "parameter file", "parameters.json")
     if not isinstance(record, dict) or record.get("schema") != SCHEMA_NAME:
         raise ParameterFileError(f"{p}: not a fitkin parameter file (no \"schema\": \"{SCHEMA_NAME}\" entry)")
     version = record.get("schema_version")
