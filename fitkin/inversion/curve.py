@@ -14,15 +14,17 @@ Morse/long-range (MLR) function of Le Roy and co-workers,
 which has one minimum (−ε at r_e) for any moderate β_i and tends to −C6/r⁶ at long range by
 construction, so the dispersion tail joins the well smoothly with no switching function.
 Inside r_j (the innermost inverted point, where the data stop) the wall is continued as a
-Born–Mayer exponential plus the dispersion term, A exp(−b (r − r_j)) − C6/r⁶, matched in
-value and slope at r_j, the slope b held in [:data:`WALL_SLOPE_BOUNDS`]/σ: monotone, and
-unable to run away under iteration.  (An exponential in U itself, with the local slope of
-the wall at r_j, overshoots: the logarithmic slope of a real wall falls inwards as the
-dispersion part fades.)
+Born–Mayer exponential plus the dispersion term, A exp(−b (r − r_j) + c (r − r_j)²/2) − C6/r⁶,
+matched in value, slope and logarithmic curvature of the repulsive part U + C6/r⁶ at r_j;
+b is held in [:data:`WALL_SLOPE_BOUNDS`]/σ and c between 0 (a pure exponential) and
+b²/:data:`WALL_SOFTEST_POWER` (a power law r^-6): monotone, and unable to run away under
+iteration.  (An exponential in U itself, with the local slope of the wall at r_j, overshoots:
+the logarithmic slope of a real wall falls inwards as the dispersion part fades; a pure
+exponential for U + C6/r⁶ undershoots a power-law wall, hence the curvature term.)
 
 Fit.  ε, r_e, ln C6 and β_0…β_N are found by weighted least squares to the inverted points
-(U(r̄_i) − U_i)/u_i and to second virial coefficients (B(T_j) − B_j)/u(B_j), with a weak
-prior on ln C6 (:data:`C6_PRIOR_WIDTH`) and a small ridge on the β_i; B(T) fixes the well
+(U(r̄_i) − U_i)/u_i and to second virial coefficients (B(T_j) − B_j)/u(B_j), with a very
+weak prior on ln C6 (:data:`C6_PRIOR_WIDTH`) and a small ridge on the β_i; B(T) fixes the well
 depth, which viscosity alone cannot deepen (every inverted point has U ≥ −ε of the
 potential it was inverted with).
 
@@ -47,7 +49,7 @@ from fitkin.errors import FitError
 from fitkin.potentials import Potential, Tabulated
 
 __all__ = ["CurveParameters", "SmoothCurve", "curve_from_potential", "fit_curve", "tabulate_curve",
-           "WALL_SLOPE_BOUNDS", "C6_PRIOR_WIDTH", "BETA_TERMS", "TAIL_START_SIGMA"]
+           "WALL_SLOPE_BOUNDS", "WALL_SOFTEST_POWER", "C6_PRIOR_WIDTH", "BETA_TERMS", "TAIL_START_SIGMA"]
 
 ANGSTROM = 1e-10
 #: Exponents p and q of the MLR radial variables (p for β_∞ and the long-range switch, q for
@@ -57,8 +59,12 @@ P_EXPONENT, Q_EXPONENT = 6, 3
 BETA_TERMS = 4
 #: Bounds of the Born–Mayer wall slope b, in units of 1/σ (a 12-6 wall at 0.9 σ has b σ ≈ 21).
 WALL_SLOPE_BOUNDS = (5.0, 50.0)
-#: Standard deviation of the weak prior on ln C6 about the start potential's value.
-C6_PRIOR_WIDTH = 0.3
+#: The wall's logarithmic curvature is held between that of an exponential (0) and that of the
+#: softest power law r^-n accepted, n = this (for r^-n, curvature = slope²/n).
+WALL_SOFTEST_POWER = 6.0
+#: Standard deviation of the prior on ln C6 about the start potential's value: very weak, it only keeps
+#: C6 finite where nothing constrains it (a width of 0.3 biased the Mie 10-6 check).
+C6_PRIOR_WIDTH = 10.0
 #: Width of the ridge (prior) on each β_i; keeps unconstrained directions of the polynomial still.
 BETA_RIDGE_WIDTH = 3.0
 #: How far one curve fit may move the well depth (factors of the previous ε/k).
@@ -115,25 +121,41 @@ class SmoothCurve:
         self.params = params
         self.r_join = float(r_join)
         self.sigma_scale = float(sigma_scale)
-        h = 1e-6 * self.r_join
-        u_j = float(_mlr(self.r_join, params))
-        slope = float(_mlr(self.r_join + h, params) - _mlr(self.r_join - h, params)) / (2 * h)
-        dispersion = params.c6 / self.r_join ** 6
-        repulsion = u_j + dispersion                      # the Born–Mayer part at r_j
-        lo, hi = WALL_SLOPE_BOUNDS
-        b = -(slope - 6.0 * dispersion / self.r_join) / repulsion if repulsion > 0 else hi / self.sigma_scale
-        self.wall_energy = max(repulsion, 1e-3 * params.epsilon_over_k)
-        self.wall_slope = float(np.clip(b, lo / self.sigma_scale, hi / self.sigma_scale))
-        # the form turns over where b A e^{b(r_j - r)} = 6 C6 / r^7, far up the wall: hold it there
-        turn = lambda r: (np.log(self.wall_slope * self.wall_energy) + self.wall_slope * (self.r_join - r)  # noqa: E731
+        self.wall_energy, self.wall_slope, self.wall_curvature = self._wall(params)
+        # the form turns over where its slope meets 6 C6 / r^7, far up the wall: hold it there
+        turn = lambda r: (np.log(self._repulsion_slope(r)) + np.log(self._repulsion(r))  # noqa: E731
                           - np.log(6.0 * params.c6) + 7.0 * np.log(r))
-        self.r_cap = brentq(turn, 1e-6 * self.r_join, self.r_join) if turn(self.r_join) > 0 else self.r_join
+        self.r_cap = brentq(turn, 1e-3 * self.r_join, self.r_join) if turn(1e-3 * self.r_join) < 0 < turn(
+            self.r_join) else (1e-3 * self.r_join if turn(self.r_join) > 0 else self.r_join)
+
+    def _wall(self, params):
+        """(A, b, c) of ln U_rep = ln A − b (r − r_j) + c (r − r_j)²/2 from the MLR at r_j."""
+        h = 0.01 * self.sigma_scale
+        r = self.r_join + np.array([-h, 0.0, h])
+        rep = _mlr(r, params) + params.c6 / r ** 6
+        a = float(rep[1])
+        if not np.all(rep > 0):
+            return max(a, 1e-3 * params.epsilon_over_k), WALL_SLOPE_BOUNDS[1] / self.sigma_scale, 0.0
+        ln = np.log(rep)
+        b = -(ln[2] - ln[0]) / (2 * h)
+        c = (ln[2] - 2 * ln[1] + ln[0]) / h ** 2
+        lo, hi = WALL_SLOPE_BOUNDS
+        b = float(np.clip(b, lo / self.sigma_scale, hi / self.sigma_scale))
+        return a, b, float(np.clip(c, 0.0, b * b / WALL_SOFTEST_POWER))
+
+    def _repulsion(self, r):
+        d = r - self.r_join
+        return self.wall_energy * np.exp(-self.wall_slope * d + 0.5 * self.wall_curvature * d * d)
+
+    def _repulsion_slope(self, r):
+        """−d U_rep/dr / U_rep (positive inside r_j)."""
+        return self.wall_slope - self.wall_curvature * (r - self.r_join)
 
     def energy(self, r) -> np.ndarray:
         """U/k in K at r in m (any shape)."""
         r = np.asarray(r, dtype=float)
         ri = np.clip(r, self.r_cap, self.r_join)
-        inner = self.wall_energy * np.exp(-self.wall_slope * (ri - self.r_join)) - self.params.c6 / ri ** 6
+        inner = self._repulsion(ri) - self.params.c6 / ri ** 6
         return np.where(r < self.r_join, inner, _mlr(np.maximum(r, self.r_join), self.params))
 
     def derivative(self, r) -> np.ndarray:
@@ -242,7 +264,7 @@ def fit_curve(r_points, energy_points, u_fit, start: CurveParameters, *, r_join:
     upper = np.full(x0.size, np.inf)
     lower[0], lower[1] = EPSILON_STEP[0] * x0[0], 0.8 * x0[1]
     upper[0], upper[1] = EPSILON_STEP[1] * x0[0], 1.25 * x0[1]
-    out = least_squares(residual, x0, bounds=(lower, upper), x_scale="jac")
+    out = least_squares(residual, x0, bounds=(lower, upper), x_scale="jac", ftol=1e-12, xtol=1e-12, gtol=1e-12)
     if not np.all(np.isfinite(out.x)):
         raise FitError("the smooth curve through the inverted points could not be fitted (no finite optimum)")
     curve = SmoothCurve(CurveParameters.from_vector(out.x), r_join, sigma_scale)
@@ -259,7 +281,10 @@ def tabulate_curve(curve: SmoothCurve, energy_top: float, points: int = 300, sou
     (Tabulated, r grid (m), U/k on the grid (K)).
     """
     top = max(energy_top, 2.0 * curve.wall_energy)
-    r_first = curve.r_join - np.log((top + curve.params.c6 / curve.r_join ** 6) / curve.wall_energy) / curve.wall_slope
+    ln_ratio = np.log((top + curve.params.c6 / curve.r_join ** 6) / curve.wall_energy)
+    b, c = curve.wall_slope, curve.wall_curvature   # solve b d + c d²/2 = ln_ratio for d = r_j − r
+    depth = 2 * ln_ratio / (b + np.sqrt(b * b + 2 * c * ln_ratio))
+    r_first = max(curve.r_join - depth, 1.05 * curve.r_cap)
     r_last = TAIL_START_SIGMA * curve.sigma_scale
     r = np.linspace(r_first, r_last, points)
     u = curve.energy(r)

@@ -27,8 +27,8 @@ from __future__ import annotations
 
 import numpy as np
 
-from fitkin.inversion.curve import CurveParameters, SmoothCurve, fit_curve
-from fitkin.inversion.points import invert_points
+from fitkin.inversion.curve import EPSILON_STEP, CurveParameters, SmoothCurve, fit_curve
+from fitkin.inversion.points import invert_points, point_energies
 
 __all__ = ["point_uncertainty", "curve_uncertainty", "perturbed_spread"]
 
@@ -76,6 +76,8 @@ def perturbed_spread(model, table, fit, T, mu, u_mu, molar_mass, virial, points,
     """Standard deviation (K) over ``sets`` perturbed data sets of the refitted curve at the
     nominal r̄_i, each set inverted with the final curve's collision integrals."""
     rng = np.random.default_rng(seed)
+    eps = fit.curve.params.epsilon_over_k
+    energies = point_energies(model, T, (EPSILON_STEP[0] * eps, EPSILON_STEP[1] * eps))
     values = np.empty((sets, points.r.size))
     for s in range(sets):
         mu_s = mu + u_mu * rng.standard_normal(mu.size)
@@ -83,7 +85,7 @@ def perturbed_spread(model, table, fit, T, mu, u_mu, molar_mass, virial, points,
         if virial is not None:
             vir_s = (virial[0], virial[1] + virial[2] * rng.standard_normal(virial[0].size), virial[2])
         pts = invert_points(model, table.sigma, table.epsilon_over_k, T, mu_s, molar_mass)
-        refit = fit_curve(pts.r, pts.energy_over_k, u_fit, fit.curve.params, r_join=fit.curve.r_join,
+        refit = fit_curve(pts.r, energies, u_fit, fit.curve.params, r_join=fit.curve.r_join,
                           sigma_scale=fit.curve.sigma_scale, virial=vir_s, c6_prior=c6_prior)
         values[s] = refit.curve.energy(points.r)
     return np.std(values, axis=0, ddof=1) if sets > 1 else np.zeros(points.r.size)
