@@ -102,6 +102,20 @@ def _check_tables(args) -> None:
         _positive_quantity(args.table_pressure, "Pa", "--pressure", "101.325 kPa")
 
 
+def _check_mix(args) -> None:
+    _check_out(args, folder=True)
+    _check_tables(args)
+    if args.walkers is not None and (args.walkers < 2 or args.walkers % 2):
+        raise UsageError(f"--walkers must be an even number ≥ 2 (the ensemble moves in two halves), got {args.walkers}")
+    if args.max_steps < 100:
+        raise UsageError(f"--max-steps must be at least 100, got {args.max_steps}")
+    for flag in ("walkers", "seed", "fix_pure"):
+        if getattr(args, flag) not in (None, False) and not args.sample:
+            raise UsageError(f"--{flag.replace('_', '-')} goes with --sample")
+    if args.prior and not args.sample:
+        raise UsageError("--prior goes with --sample (least squares uses no prior)")
+
+
 def _check_fit(args) -> None:
     _check_out(args, folder=True)
     _check_tables(args)
@@ -195,6 +209,6 @@ def check_arguments(args) -> None:
     cannot work; fill in defaults that depend on other options."""
     check = {"check": _check_tables, "fit": _check_fit, "predict": _check_predict, "report": _check_report,
              "demo": lambda a: _check_out(a, folder=True), "plan": _check_plan,
-             "library": lambda a: _check_out(a, folder=True)}.get(args.command)
+             "library": lambda a: _check_out(a, folder=True), "mix": _check_mix}.get(args.command)
     if check is not None:
         check(args)

@@ -6,6 +6,7 @@ array([2.27e-05, 3.42e-05])
 """
 from __future__ import annotations
 
+import copy
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -144,6 +145,22 @@ class FittedGas:
 
     def _theta(self) -> dict:
         return {k: v["value"] for k, v in self.record["parameters"].items()}
+
+    def with_parameters(self, values: dict) -> "FittedGas":
+        """The same fit with some parameter values replaced (record units: σ in Å, ε/k in K),
+        e.g. a posterior draw. The record was checked when this fit was loaded and is not
+        checked again (cheap enough to call once per sampler evaluation)."""
+        unknown = sorted(set(values) - set(self.record["parameters"]))
+        if unknown:
+            raise FitkinError(f"{', '.join(unknown)}: not a parameter of this fit "
+                              f"({', '.join(self.record['parameters'])})")
+        params = {k: dict(v) for k, v in self.record["parameters"].items()}
+        for name, value in values.items():
+            params[name]["value"] = float(value)
+        new = copy.copy(self)
+        new.record = {**self.record, "parameters": params}
+        new._model = self._forward.transport(new._theta())
+        return new
 
     def _draws(self, n: int, seed: int = 20261201):
         cov = self.record.get("covariance", {})

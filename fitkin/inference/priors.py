@@ -21,7 +21,7 @@ from scipy.special import log_ndtr
 from ..errors import FitError
 
 __all__ = ["Prior", "Uniform", "LogUniform", "Gaussian", "PriorSet", "parse_prior", "parse_prior_assignment",
-           "PRIOR_KINDS"]
+           "PRIOR_KINDS", "bounded_prior"]
 
 
 class Prior:
@@ -224,6 +224,28 @@ def parse_prior_assignment(text: str) -> tuple[str, Prior]:
     name, spec = (t.strip() for t in str(text).split("=", 1))
     aliases = {"eps": "epsilon_over_k", "epsilon": "epsilon_over_k", "eps/k": "epsilon_over_k"}
     return aliases.get(name, name), parse_prior(spec)
+
+
+def bounded_prior(name: str, prior, lo: float, hi: float, unit: str = "") -> Prior:
+    """The prior of ``name`` restricted to the interval [lo, hi] where the model can be evaluated:
+    Uniform(lo, hi) when ``prior`` is None; a given Prior (or ``KIND:ARGS`` text) clipped to it.
+
+    Raises FitError for a prior that is no Prior, lies wholly outside [lo, hi], or for no
+    prior where the interval is not finite.
+    """
+    if prior is None:
+        if not (math.isfinite(lo) and math.isfinite(hi)):
+            raise FitError(f"no bounds known for {name}; give it a prior")
+        return Uniform(lo, hi)
+    if isinstance(prior, str):
+        prior = parse_prior(prior)
+    if not isinstance(prior, Prior):
+        raise FitError(f"the prior of {name} must be a Prior or 'KIND:ARGS' text, got {prior!r}")
+    plo, phi = prior.support
+    if plo >= hi or phi <= lo:
+        raise FitError(f"the prior of {name}, {prior.describe()}, lies wholly outside the range the model can "
+                       f"evaluate for these data, [{lo:.5g}, {hi:.5g}] {unit}".rstrip())
+    return prior.clipped(lo, hi)
 
 
 class PriorSet:

@@ -12,59 +12,32 @@ not converge. Burn-in of :data:`BURN_IN_TAU` τ is discarded and the chain thinn
 from __future__ import annotations
 
 import math
-import sys
-import time
 
 import emcee
 import numpy as np
 
-from ..errors import FitError, FitkinError
+from ..errors import FitError
 from ..potentials import LennardJones
 from ..species import Gas
 from .corresponding_states import corresponding_states_priors
-from .diagnostics import (Diagnostics, acceptance_summary, assess_convergence, effective_sample_size,
-                          integrated_time, split_rhat)
+from .ensemble import BURN_IN_TAU, run_ensemble
 from .fitdata import FitData
 from .leastsq import fit_least_squares, resolve_internal
 from .calibration import calibration_name, source_offsets
 from .likelihood import LogLikelihood
 from .model import ForwardModel
 from .posterior import Posterior
-from .priors import Gaussian, Prior, PriorSet, Uniform, parse_prior
+from .priors import Gaussian, PriorSet, bounded_prior, parse_prior
 from .result import PARAMETER_UNITS
 
 __all__ = ["sample_posterior", "initial_ensemble", "BURN_IN_TAU", "RIDGE_CORRELATION", "CONTRADICTION_Z"]
 
-#: Discarded burn-in, in autocorrelation times (common practice: a few τ).
-BURN_IN_TAU = 5
 #: |corr(σ, ε/k)| above which the posterior is reported as a ridge.
 RIDGE_CORRELATION = 0.98  # the same threshold as the least-squares warning (leastsq.CORRELATION_WARNING)
 #: Two sources whose mean offsets differ by more than this many combined standard
 #: uncertainties (including calibration widths) contradict each other (common practice).
 CONTRADICTION_Z = 10.0
 BALL_SCALE = 0.1
-
-
-class _Progress:
-    """A one-line progress display on stderr, refreshed at most five times a second."""
-
-    def __init__(self, enabled: bool, stream=None):
-        self.enabled, self.stream, self.last = enabled, stream or sys.stderr, 0.0
-
-    def update(self, step, limit, note="", force=False):
-        now = time.monotonic()
-        if not self.enabled or (not force and now - self.last < 0.2):
-            return
-        self.last = now
-        width = 24
-        filled = int(width * min(step / max(limit, 1), 1.0))
-        self.stream.write(f"\rsampling [{'#' * filled}{'.' * (width - filled)}] step {step}/{limit} {note}   ")
-        self.stream.flush()
-
-    def close(self):
-        if self.enabled:
-            self.stream.write("\n")
-            self.stream.flush()
 
 
 def _build_priors(lik: LogLikelihood, start, priors, critical) -> PriorSet:
@@ -82,19 +55,7 @@ def _build_priors(lik: LogLikelihood, start, priors, critical) -> PriorSet:
     out = dict(lik.nuisance_priors())
     for name in lik.physical_names:
         lo, hi = bounds.get(name, (-math.inf, math.inf))
-        p = given.get(name)
-        if p is None:
-            if not (math.isfinite(lo) and math.isfinite(hi)):
-                raise FitError(f"no bounds known for {name}; give it a prior")
-            out[name] = Uniform(lo, hi)
-            continue
-        if not isinstance(p, Prior):
-            raise FitError(f"the prior of {name} must be a Prior or 'KIND:ARGS' text, got {p!r}")
-        plo, phi = p.support
-        if plo >= hi or phi <= lo:
-            raise FitError(f"the prior of {name}, {p.describe()}, lies wholly outside the range the model can "
-                           f"evaluate for these data, [{lo:.5g}, {hi:.5g}] {PARAMETER_UNITS.get(name, '')}")
-        out[name] = p.clipped(lo, hi)
+        out[name] = bounded_prior(name, given.get(name), lo, hi, PARAMETER_UNITS.get(name, ""))
     for name in set(given) - set(lik.physical_names):
         out[name] = given[name]
     return PriorSet(out, lik.names)
@@ -231,32 +192,6 @@ def _posterior_warnings(post_samples, names, prior: PriorSet, diagnostics, lik) 
     return warn
 
 
-class _StopOnInterrupt:
-    """The log-probability as emcee calls it, with Ctrl-C carried past emcee.
-
-    emcee prints a traceback (and the walkers' positions) for any exception raised inside the
-    log-probability, Ctrl-C included; this wrapper catches the interruption there, lets emcee
-    finish the step with rejected proposals, and re-raises it from the sampling loop.
-    """
-
-    def __init__(self, log_prob):
-        self.log_prob = log_prob
-        self.interrupted = False
-
-    def __call__(self, x):
-        if self.interrupted:
-            return np.full(len(x), -np.inf)
-        try:
-            return self.log_prob(x)
-        except KeyboardInterrupt:
-            self.interrupted = True
-            return np.full(len(x), -np.inf)
-
-    def raise_if_interrupted(self):
-        if self.interrupted:
-            raise KeyboardInterrupt
-
-
 def sample_posterior(data: FitData, gas: Gas, potential=None, *, free_shape=(), order: int = 3,
                      collision: str = "computed", priors: dict | None = None, critical=None,
                      likelihood: str = "gaussian", nu: float = 4.0, extra_scatter: bool = False,
@@ -328,48 +263,9 @@ def sample_posterior(data: FitData, gas: Gas, potential=None, *, free_shape=(), 
     if walkers < 2 * dim:
         raise FitError(f"{walkers} walkers are too few for {dim} parameters; use at least {2 * dim}")
     pos = initial_ensemble(log_prob, center, scale, walkers, rng)
-    guarded = _StopOnInterrupt(log_prob)
-    sampler = emcee.EnsembleSampler(walkers, dim, guarded, vectorize=True)
-    sampler.random_state = np.random.RandomState(seed).get_state()
-    display = _Progress(progress, progress_stream)
-    state = emcee.State(pos)
-    steps, next_check, tau_prev, history = 0, min(500, max_steps), None, []
-    converged, reasons, tau = False, ["not run"], np.ones(dim)
-    try:
-        while True:
-            for state in sampler.sample(state, iterations=next_check - steps, skip_initial_state_check=True):
-                guarded.raise_if_interrupted()
-                steps += 1
-                display.update(steps, max_steps, f"(next check at {next_check})")
-            chain = sampler.get_chain()
-            tau = integrated_time(chain)
-            history.append((steps, tau.tolist()))
-            burn = min(int(math.ceil(BURN_IN_TAU * tau.max())), steps // 2)
-            rhat = split_rhat(chain[burn:])
-            acc = float(np.mean(sampler.acceptance_fraction))
-            converged, reasons = assess_convergence(steps, tau, tau_prev, rhat, acc, names)
-            tau_prev = tau
-            display.update(steps, max_steps, f"τ_max {tau.max():.0f}, acceptance {acc:.2f}", force=True)
-            if converged or steps >= max_steps:
-                break
-            want = int(1.2 * 50 * tau.max())
-            next_check = min(max_steps, max(steps + 250, want, int(1.25 * steps)))
-    except FitkinError:
-        raise
-    except (ValueError, FloatingPointError) as exc:
-        raise FitError(f"posterior sampling failed numerically: {exc}") from exc
-    finally:
-        display.close()
-    if steps >= max_steps and not converged:
-        reasons = [f"the step limit {max_steps} was reached"] + list(reasons)
-    thin = max(1, int(tau.min() / 2))
-    flat = sampler.get_chain(discard=burn, thin=thin, flat=True)
-    flat_lp = sampler.get_log_prob(discard=burn, thin=thin, flat=True)
-    kept = steps - burn
-    diag = Diagnostics(names=names, steps=steps, walkers=walkers, burn_in=burn, thin=thin, tau=tau,
-                       tau_history=tuple(history), rhat=rhat, ess=effective_sample_size(kept, walkers, tau),
-                       acceptance=acceptance_summary(sampler.acceptance_fraction), converged=converged,
-                       reasons=tuple(reasons) if not converged else ())
+    run = run_ensemble(log_prob, pos, names, max_steps=max_steps, seed=seed, progress=progress,
+                       progress_stream=progress_stream)
+    flat, flat_lp, diag = run.samples, run.log_prob, run.diagnostics
     warnings += _posterior_warnings(flat, list(names), prior, diag, lik)
     med = np.median(flat, axis=0)
     sources = {s: {"points": n, "chi2_at_median": c} for s, (n, c) in lik.chi2_by_source(med).items()}

@@ -12,6 +12,7 @@ from .model import InteractionModel
 from .points import MixturePoints
 from .result import InteractionFit
 from .rules import rules_compared
+from .sampling import sample_interaction
 
 __all__ = ["fit_interaction", "as_fitted_gas", "pair_names"]
 
@@ -74,7 +75,9 @@ def fit_interaction(first, second, tables, *, rule: str = "lorentz-berthelot", f
         warnings.append(f"the least-squares search did not report success: {least_squares.message}")
     posterior = None
     if sample:
-        raise FitError("posterior sampling of the unlike pair is not available yet")
+        posterior = sample_interaction(model, points, least_squares, priors=priors, walkers=walkers,
+                                       max_steps=max_steps, seed=seed, marginalise=marginalise, progress=progress)
+        warnings += list(posterior.warnings)
     return InteractionFit(model=model, points=points, least_squares=least_squares,
                           rules_compared=rules_compared(model, points), posterior=posterior,
                           warnings=tuple(warnings))

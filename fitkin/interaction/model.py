@@ -41,14 +41,7 @@ def rule_name(name: str) -> str:
 
 def with_parameters(gas: FittedGas, values: dict) -> FittedGas:
     """The same fitted gas with some parameters (record units: σ in Å, ε/k in K) replaced."""
-    if not values:
-        return gas
-    record = dict(gas.record)
-    params = {k: dict(v) for k, v in record["parameters"].items()}
-    for name, value in values.items():
-        params[name]["value"] = float(value)
-    record["parameters"] = params
-    return FittedGas(record, path=gas.path)
+    return gas.with_parameters(values) if values else gas
 
 
 def predict_with_pair(pair: GasPair, points: MixturePoints) -> np.ndarray:

@@ -28,7 +28,8 @@ from .json_record import read_json_record
 from .record_check import check_record
 from .residuals import ResidualColumns, residual_entries, write_residuals
 
-__all__ = ["SCHEMA_NAME", "SCHEMA_VERSION", "result_to_record", "write_parameter_file", "read_parameter_file"]
+__all__ = ["SCHEMA_NAME", "SCHEMA_VERSION", "result_to_record", "write_parameter_file", "read_parameter_file",
+           "json_safe"]
 
 SCHEMA_NAME = "fitkin.parameters"
 SCHEMA_VERSION = 1
@@ -50,6 +51,10 @@ def _clean(x):
     if isinstance(x, np.bool_):
         return bool(x)
     return x
+
+
+#: The JSON-safe copy of a record (numpy to Python, NaN and inf to None), for other writers.
+json_safe = _clean
 
 
 def result_to_record(result, tables=(), t_star_range=None) -> dict:
