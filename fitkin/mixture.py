@@ -17,9 +17,12 @@ What is computed (SI throughout):
   kihara_diffusion_delta`); ``approximation="first"`` gives the composition-independent
   first approximation from Ω12(1,1)*, ``"sonine"`` the exact Sonine approximation of the
   pair's ``order`` (≤ 4).
-* k_tr,mix(T, x1): the same for the translational (monatomic) thermal conductivity; it
+* k_tr,mix(T, x1): the Chapman–Enskog first approximation for the translational
+  (monatomic) thermal conductivity of binary mixtures; it
   leaves out internal-energy transport, so it is the whole conductivity only for
-  monatomic gases.
+  monatomic gases. k_mix(T, x1) (:meth:`GasPair.conductivity`) adds each polyatomic gas's
+  fitted internal-energy part, carried by diffusion (Hirschfelder 1957; see
+  :mod:`fitkin.pair_conductivity`).
 * μ_mix(T, x1): by default Kihara's second approximation for binary mixtures
   (:func:`fitkin.theory.mixture_orders.mixture_viscosity`), from the collision integrals of
   both gases and of the unlike pair (computed from the potentials). Its pure limits are each
@@ -43,6 +46,7 @@ from .errors import FitkinError, OutOfRangeError, UsageError
 from .fitted import FittedGas, load_parameters
 from .inference.compare import parse_potential_choice
 from .inference.model import ANGSTROM, with_shape
+from .pair_conductivity import PairConductivity
 from .potentials import Potential
 from .theory import mixture_orders
 from .theory import mixtures as mix
@@ -101,7 +105,7 @@ def _label(gas: FittedGas, fallback: str) -> str:
     return gas.gas.name or gas.gas.formula or fallback
 
 
-class GasPair:
+class GasPair(PairConductivity):
     """Binary-mixture transport of two fitted gases (gas 1 and gas 2, in that order).
 
     Parameters
@@ -363,35 +367,6 @@ class GasPair:
         if x1.size == 0 or np.any(~np.isfinite(x1)) or np.any((x1 < 0) | (x1 > 1)):
             raise FitkinError(f"mole fraction x1 of {self.names[0]} must lie between 0 and 1")
         return x1
-
-    def translational_conductivity(self, T, x1):
-        """Translational (monatomic) thermal conductivity of the mixture, W/(m K).
-
-        Chapman–Enskog first approximation for binary mixtures with the pure translational
-        conductivities of each gas's model and k12 of the unlike pair, each at the pair's
-        Sonine order (as for :meth:`viscosity`). For polyatomic gases the internal-energy
-        part is missing: this is not their whole conductivity. T (K) and x1 broadcast.
-        """
-        T = self._temperatures(T)
-        x1 = self._mole_fraction(x1)
-        T, x1 = np.broadcast_arrays(T, x1)
-        t = T.ravel()
-        t_star = t / self.epsilon12_over_k
-        om = {ls: self._omega(self._pair_computed, *ls, t_star) for ls in ((1, 1), (1, 2), (1, 3), (2, 2))}
-        a_star = om[2, 2] / om[1, 1]
-        b_star = mix.b_star(om[1, 1], om[1, 2], om[1, 3])
-        k_pure = []
-        for i, gas in enumerate((self.first, self.second)):
-            try:
-                k_pure.append(self._pure[i].conductivity(t, gas.gas.molar_mass, gas.sigma, gas.epsilon_over_k))
-            except OutOfRangeError as exc:
-                raise OutOfRangeError(f"pair {self.name}, pure {self.names[i]}: {exc}") from None
-        M1, M2 = self.molar_masses
-        k12 = self._pair_model.conductivity(t, 2.0 * mix.reduced_molar_mass(M1, M2), self.sigma12,
-                                            self.epsilon12_over_k)
-        out = mix.binary_mixture_conductivity_first(x1.ravel(), k_pure[0], k_pure[1], k12, M1, M2,
-                                                    a_star, b_star)
-        return out.reshape(T.shape)[()]
 
     def __repr__(self) -> str:
         return (f"GasPair({self.name}: σ12 = {self.sigma12 / ANGSTROM:.4f} Å, "

@@ -163,7 +163,7 @@ class FittedInteraction:
         """True for two monatomic gases (translational conductivity is the whole of it) or a
         pair whose :class:`~fitkin.mixture.GasPair` has a conductivity with internal energy."""
         both_monatomic = is_monatomic(self.first.gas) and is_monatomic(self.second.gas)
-        return both_monatomic or hasattr(self._central, "conductivity")
+        return both_monatomic or self._central.has_conductivity_model
 
     def conductivity(self, T, x1, band: float | None = None):
         """Mixture thermal conductivity k_mix(T, x1) in W/(m K).
@@ -176,9 +176,7 @@ class FittedInteraction:
             raise FitkinError(f"{self._central.name}: at least one gas is polyatomic, and fitkin has no mixture "
                               "conductivity with internal-energy transport for it; pair().translational_"
                               "conductivity(T, x1) gives the translational part only")
-        if hasattr(self._central, "conductivity"):
-            return self._predict(lambda pair: pair.conductivity(T, x1), band)
-        return self._predict(lambda pair: pair.translational_conductivity(T, x1), band)
+        return self._predict(lambda pair: pair.conductivity(T, x1), band)
 
     def binary_diffusion(self, T, p=STANDARD_PRESSURE, x1=0.5, band: float | None = None):
         """Binary diffusion coefficient D12(T, p, x1) in m²/s at pressure p (Pa).
