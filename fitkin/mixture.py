@@ -274,10 +274,11 @@ class GasPair(PairConductivity):
             raise OutOfRangeError(f"pair {self.name} (ε12/k = {self.epsilon12_over_k:.4g} K): {exc}; "
                                   f"the unlike pair is covered for {lo:.4g} K ≤ T ≤ {hi:.4g} K") from None
 
-    def _pure_viscosity(self, i: int, T):
+    def _pure_property(self, kind: str, i: int, T):
+        """Pure gas i's ``kind`` ("viscosity" or "conductivity", translational) at the pair's order."""
         gas = (self.first, self.second)[i]
         try:
-            return self._pure[i].viscosity(T, gas.gas.molar_mass, gas.sigma, gas.epsilon_over_k)
+            return getattr(self._pure[i], kind)(T, gas.gas.molar_mass, gas.sigma, gas.epsilon_over_k)
         except OutOfRangeError as exc:
             raise OutOfRangeError(f"pair {self.name}, pure {self.names[i]}: {exc}") from None
 
@@ -354,7 +355,7 @@ class GasPair(PairConductivity):
             out = mixture_orders.mixture_viscosity(approximation, t, x1.ravel(), M1, M2, self.first.sigma,
                                                    self.second.sigma, self.sigma12, self._mixture_omegas(t))
             return out.reshape(T.shape)[()]
-        mu1, mu2 = self._pure_viscosity(0, t), self._pure_viscosity(1, t)
+        mu1, mu2 = self._pure_property("viscosity", 0, t), self._pure_property("viscosity", 1, t)
         mu12 = self.interaction_viscosity(t)
         t_star = t / self.epsilon12_over_k
         a_star = self._omega(self._pair_first, 2, 2, t_star) / self._omega(self._pair_first, 1, 1, t_star)

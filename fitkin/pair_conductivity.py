@@ -41,20 +41,13 @@ class PairConductivity:
         om = {ls: self._omega(self._pair_computed, *ls, t_star) for ls in ((1, 1), (1, 2), (1, 3), (2, 2))}
         a_star = om[2, 2] / om[1, 1]
         b_star = mix.b_star(om[1, 1], om[1, 2], om[1, 3])
-        k_pure = [self._pure_translational(i, t) for i in (0, 1)]
+        k_pure = [self._pure_property("conductivity", i, t) for i in (0, 1)]
         M1, M2 = self.molar_masses
         k12 = self._pair_model.conductivity(t, 2.0 * mix.reduced_molar_mass(M1, M2), self.sigma12,
                                             self.epsilon12_over_k)
         out = mix.binary_mixture_conductivity_first(x1.ravel(), k_pure[0], k_pure[1], k12, M1, M2,
                                                     a_star, b_star)
         return out.reshape(T.shape)[()]
-
-    def _pure_translational(self, i: int, t):
-        gas = (self.first, self.second)[i]
-        try:
-            return self._pure[i].conductivity(t, gas.gas.molar_mass, gas.sigma, gas.epsilon_over_k)
-        except OutOfRangeError as exc:
-            raise OutOfRangeError(f"pair {self.name}, pure {self.names[i]}: {exc}") from None
 
     @property
     def has_conductivity_model(self) -> bool:
@@ -89,7 +82,7 @@ class PairConductivity:
         if all(is_monatomic(g.gas) for g in gases):
             return out.reshape(T.shape)[()]
         internal = [np.zeros_like(t) if is_monatomic(g.gas) else
-                    np.ravel(g.conductivity(t)) - self._pure_translational(i, t) for i, g in enumerate(gases)]
+                    np.ravel(g.conductivity(t)) - self._pure_property("conductivity", i, t) for i, g in enumerate(gases)]
         omega12 = self._omega(self._pair_first, 1, 1, t / self.epsilon12_over_k)
         M = self.molar_masses
         ratios = []
