@@ -40,6 +40,7 @@ _EPILOG_PREDICT = """examples:
   fitkin predict fit-argon/parameters.json --temperatures 300,400,500 --pressure "1 bar" --out table.csv
   fitkin predict fit-argon/parameters.json --temperatures 250:350:25 --band 0.95 --format json
   fitkin predict fit-argon/parameters.json -T 300:600:100 --with fit-helium/parameters.json --x1 0.25,0.5
+  fitkin predict fit-argon/parameters.json -T 300 --with fit-helium/parameters.json --interaction mix/interaction.json --x1 0.5 --band 0.95
 """
 _EPILOG_REPORT = """examples:
   fitkin report fit-argon/parameters.json
@@ -216,6 +217,9 @@ def build_parser() -> argparse.ArgumentParser:
     mix.add_argument("--epsilon12", help="unlike-pair ε12/k (default Berthelot: geometric mean), e.g. '150 K'")
     mix.add_argument("--k12", type=float, help="ε12 = (1 − k12)√(ε1 ε2) (default 0)")
     mix.add_argument("--pair-shape", help="potential of the unlike pair when the two fits used different shapes")
+    mix.add_argument("--interaction", metavar="INTERACTION.json",
+                     help="unlike pair fitted by fitkin mix (its σ12, ε12/k and their uncertainty, for bands) "
+                          "instead of combining rules")
     p.add_argument("--out", metavar="FILE", help="write here instead of standard output")
     p.add_argument("--force", action="store_true", help="replace an existing FILE")
 

@@ -158,10 +158,15 @@ def _check_predict(args) -> None:
         raise UsageError(f"--band is a probability between 0 and 1 (e.g. 0.95), got {args.band:g}")
     pair_options = [option for option, value in (("--x1", args.x1), ("--sigma12", args.sigma12),
                                                   ("--epsilon12", args.epsilon12), ("--k12", args.k12),
-                                                  ("--pair-shape", args.pair_shape)) if value is not None]
+                                                  ("--pair-shape", args.pair_shape),
+                                                  ("--interaction", args.interaction)) if value is not None]
     if pair_options and not args.with_gas:
         raise UsageError(f"{', '.join(pair_options)} describe{'s' if len(pair_options) == 1 else ''} a mixture: "
                          "name the second gas with --with OTHER.json")
+    rules = [o for o in pair_options if o not in ("--x1", "--interaction")]
+    if args.interaction is not None and rules:
+        raise UsageError(f"--interaction gives the fitted unlike pair; {', '.join(rules)} would set it another way. "
+                         "Leave out one or the other")
     if args.sigma12 is not None:
         if _BARE_NUMBER.match(args.sigma12):
             raise UnitError(f"--sigma12: '{args.sigma12}' has no unit",

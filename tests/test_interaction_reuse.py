@@ -132,7 +132,7 @@ def test_polyatomic_conductivity_is_refused(tmp_path):
     n2 = pure_record("N2", 3.65, 98.0, 0.005, 0.5)
     pair = fitkin.load_interaction(write_interaction(tmp_path, interaction_record(n2, HE, 3.1, 30.0, _cov(0.01, 1.0))))
     assert not pair.has_conductivity_model
-    with pytest.raises(FitkinError, match="translational part only"):
+    with pytest.raises(FitkinError, match="N2 was fitted without a model of internal-energy transport"):
         pair.conductivity(300.0, 0.5)
     assert pair.viscosity(300.0, 0.5) > 0
 

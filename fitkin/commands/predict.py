@@ -8,6 +8,7 @@ import numpy as np
 from ..cli_checks import parse_mole_fractions, parse_temperatures
 from ..fitted import load_parameters
 from ..io.atomic import check_can_write, write_text_atomic
+from ..interaction import FittedInteraction, PairPredictor, load_interaction
 from ..mixture import GasPair
 from ..units import parse_quantity
 
@@ -38,8 +39,10 @@ def prediction_table(gas, T, pressure, band=None, pair=None, x1=None):
     with ``band`` the limits of the central band of probability ``band`` follow it as
     ``NAME lower P [unit]`` and ``NAME upper P [unit]`` (see :func:`band_note`).
 
-    ``pair`` (a :class:`fitkin.mixture.GasPair` with this gas first) adds the binary
-    diffusion coefficient and, for each mole fraction in ``x1``, the mixture viscosity.
+    ``pair`` (a :class:`fitkin.interaction.PairPredictor` or :class:`fitkin.mixture.GasPair`
+    with this gas first, or a :class:`fitkin.interaction.FittedInteraction`) adds the binary
+    diffusion coefficient and, for each mole fraction in ``x1``, the mixture viscosity, with
+    their bands when ``band`` is given (drawn as the pair's ``band_source`` says).
     """
     cols = [("T [K]", T)]
     specs = [("viscosity", "viscosity [uPa s]", 1e6, {}),
@@ -55,25 +58,38 @@ def prediction_table(gas, T, pressure, band=None, pair=None, x1=None):
         limits = tuple(r * scale for r in gas.predict(kind, T, band=band, **kw)) if band is not None else None
         _with_band(cols, header, point, band, limits)
     if pair is not None:
-        cols.append((f"binary diffusion with {pair.names[1]} at {pressure:g} Pa [cm^2/s]",
-                     pair.binary_diffusion(T, pressure) * 1e4))
+        if isinstance(pair, GasPair):
+            pair = PairPredictor(pair)
+        limits = pair.binary_diffusion(T, pressure, band=band) if band is not None else None
+        _with_band(cols, f"binary diffusion with {pair.names[1]} at {pressure:g} Pa [cm^2/s]",
+                   pair.binary_diffusion(T, pressure) * 1e4, band, limits and tuple(v * 1e4 for v in limits))
         for x in (x1 if x1 is not None else ()):
-            cols.append((f"mixture viscosity x({gas.gas.name}) = {x:g} [uPa s]", pair.viscosity(T, x) * 1e6))
+            limits = pair.viscosity(T, x, band=band) if band is not None else None
+            _with_band(cols, f"mixture viscosity x({gas.gas.name}) = {x:g} [uPa s]", pair.viscosity(T, x) * 1e6,
+                       band, limits and tuple(v * 1e6 for v in limits))
     lo_T, hi_T = gas.temperature_range
     if pair is not None:  # a mixture is only as measured as the less-measured of its two gases
-        lo_T, hi_T = max(lo_T, pair.second.temperature_range[0]), min(hi_T, pair.second.temperature_range[1])
+        second = pair.pair().second.temperature_range
+        lo_T, hi_T = max(lo_T, second[0]), min(hi_T, second[1])
     cols.append(("extrapolated", np.where((T < lo_T) | (T > hi_T), "yes", "no")))
     return cols
 
 
 def _pair(args, gas):
+    """The mixture predictor of ``--with`` (and ``--interaction``), and the ``--x1`` list."""
     if not args.with_gas:
         return None, None  # mixture options without --with are refused in fitkin.cli_checks
+    other = load_parameters(args.with_gas)
+    x1 = parse_mole_fractions(args.x1) if args.x1 else None
+    if args.interaction:
+        fitted = load_interaction(args.interaction)
+        fitted.check_gases(gas, other)
+        return fitted, x1
     sigma12 = parse_quantity(args.sigma12, "m", name="--sigma12", default_unit="angstrom") if args.sigma12 else None
     eps12 = parse_quantity(args.epsilon12, "K", name="--epsilon12", default_unit="K") if args.epsilon12 else None
-    pair = GasPair(gas, load_parameters(args.with_gas), sigma12=sigma12, epsilon12_over_k=eps12,
+    pair = GasPair(gas, other, sigma12=sigma12, epsilon12_over_k=eps12,
                    k12=0.0 if args.k12 is None else args.k12, shape=args.pair_shape)
-    return pair, (parse_mole_fractions(args.x1) if args.x1 else None)
+    return PairPredictor(pair), x1
 
 
 def run_predict(args, out) -> int:
@@ -87,6 +103,8 @@ def run_predict(args, out) -> int:
     notes = []
     if args.band is not None:
         notes.append(band_note(args.band, gas.band_source))
+        if pair is not None:
+            notes.append(f"mixture bands from {pair.band_source}")
     if not gas.has_conductivity_model:
         notes.append("no conductivity: polyatomic gas fitted without an internal-energy model")
     if args.format == "json":
@@ -98,7 +116,9 @@ def run_predict(args, out) -> int:
                            "lower_upper_columns": f"quantiles {(1 - args.band) / 2:g} and {(1 + args.band) / 2:g} "
                                                   "of the predictions of parameter draws"}
         if pair is not None:
-            doc["mixture"] = pair.describe()
+            doc["mixture"] = pair.describe() if isinstance(pair, FittedInteraction) else pair.pair().describe()
+            if args.band is not None:
+                doc["band"]["mixture_draws_from"] = pair.band_source
         text = json.dumps(doc, indent=2, ensure_ascii=False, default=str) + "\n"
     else:
         lines = [f"# predictions of fitkin from {args.parameters}; gas {gas.gas.name}; measured range "

@@ -5,37 +5,41 @@
 >>> pair.binary_diffusion([300.0, 500.0], p=1e5)                  # m²/s                           # doctest: +SKIP
 
 The interaction file embeds both pure gases' parameter records, so nothing else is needed.
-T (K), x1 (mole fraction of the first gas) and p (Pa) broadcast against each other the numpy
-way (for a table over both, pass ``T[:, None]`` and ``x1[None, :]``); results have the
-broadcast shape, SI units. ``band=P`` returns (median, lower, upper) of the predictions of
-parameter draws, as :meth:`fitkin.fitted.FittedGas.predict` does; where the draws come from
-is :attr:`FittedInteraction.band_source` (see :mod:`fitkin.interaction.bands`).
+The methods (viscosity, conductivity, binary_diffusion; broadcasting, ``band=``) are those of
+:class:`fitkin.interaction.predictor.PairPredictor`; the draws of a band are the fit's joint
+posterior samples when it was sampled, else its covariance and each pure gas's own
+uncertainty, independently (:attr:`FittedInteraction.band_source`, :mod:`fitkin.interaction.bands`).
 """
 from __future__ import annotations
 
+import hashlib
 import inspect
-from functools import cached_property
 from pathlib import Path
 
 import numpy as np
 
-from ..errors import FitkinError, ParameterFileError
+from ..errors import FitkinError, ParameterFileError, UsageError
 from ..fitted import BAND_DRAWS, FittedGas
-from ..inference.model import ANGSTROM, is_monatomic
-from ..mixture import STANDARD_PRESSURE, GasPair
+from ..inference.model import ANGSTROM
+from ..mixture import GasPair
 from ..potentials import potential_from_record
-from .bands import BAND_SEED, PairDraws, check_band, covariance_draws, gas_draws, pair_band
+from .bands import BAND_SEED, PairDraws, covariance_draws, gas_draws
+from .predictor import PairPredictor
 from .reading import FITTED, GAS_ROLES, check_interaction_record, interaction_samples, \
     read_checked_interaction
 
 __all__ = ["FittedInteraction", "load_interaction"]
 
 
+def _sha256(path) -> str:
+    return hashlib.sha256(Path(path).read_bytes()).hexdigest()
+
+
 def _accepts(function, name: str) -> bool:
     return name in inspect.signature(function).parameters
 
 
-class FittedInteraction:
+class FittedInteraction(PairPredictor):
     """Mixture transport of a fitted unlike pair: μ_mix, k_mix and D12 with bands.
 
     Parameters
@@ -57,6 +61,7 @@ class FittedInteraction:
             raise ParameterFileError(f"{source}: {exc}") from None
         except FitkinError as exc:
             raise ParameterFileError(f"{source}: the fitted pair cannot be rebuilt: {exc}") from None
+        super().__init__(self._central, {"approximation": self._central.approximation, **self._options})
         self._samples = interaction_samples(record, self.path)
 
     def _build_pair(self) -> GasPair:
@@ -74,14 +79,6 @@ class FittedInteraction:
                        epsilon12_over_k=params["epsilon12_over_k"]["value"], **kwargs)
 
     # -- description ---------------------------------------------------------------------
-    def pair(self) -> GasPair:
-        """The :class:`fitkin.mixture.GasPair` at the fitted σ12 and ε12/k (no bands)."""
-        return self._central
-
-    @property
-    def names(self) -> tuple[str, str]:
-        return self._central.names
-
     @property
     def sigma12(self) -> float:
         """Fitted σ12 in metres."""
@@ -99,10 +96,30 @@ class FittedInteraction:
         gas = (self.first, self.second)[GAS_ROLES.index(role)]
         return {"name": gas.gas.name, "path": entry.get("path"), "sha256": entry.get("sha256")}
 
-    @property
-    def band_source(self) -> str:
-        """Where the draws of a band come from, in words."""
-        return self._draws.source
+    def check_gases(self, first: FittedGas, second: FittedGas) -> None:
+        """Refuse (:class:`UsageError`, saying which) two pure fits that are not this pair's gases.
+
+        Each must have the gas name of its place in the file (first, second), and, where the
+        file records the SHA-256 of the parameter file a gas came from, be that very file: a
+        refit of the same gas has other σ, ε/k than the ones the unlike pair was fitted with.
+        """
+        given = [(first, "the parameter file"), (second, "--with")]
+        names = [g.gas.name for g, _ in given]
+        if names == list(reversed(self.names)) and names != list(self.names):
+            raise UsageError(f"{self.path}: the pair is {self.names[0]} (first) with {self.names[1]} (second), "
+                             f"but the parameter file is {names[0]} and --with {names[1]}; swap them (fitkin predict "
+                             f"{second.path} --with {first.path} ...), so that --x1 is the mole fraction of "
+                             f"{self.names[0]}")
+        for role, (gas, where) in zip(GAS_ROLES, given):
+            expected = self.gas_file(role)
+            if gas.gas.name != expected["name"]:
+                raise UsageError(f"{self.path}: its {role} gas is {expected['name']}, but {where} ({gas.path}) is "
+                                 f"{gas.gas.name}; give the parameter files of the pair the interaction was fitted to")
+            if expected["sha256"] and gas.path and _sha256(gas.path) != expected["sha256"]:
+                raise UsageError(f"{self.path}: {where} ({gas.path}) is not the {expected['name']} parameter file the "
+                                 f"pair was fitted with ({expected['path']}, sha256 {expected['sha256'][:12]}…); "
+                                 "its σ and ε/k differ from those the unlike pair belongs to. Give that file, or "
+                                 "fit the pair again with fitkin mix")
 
     def describe(self) -> dict:
         """The pair as :meth:`fitkin.mixture.GasPair.describe` gives it, with the file and the
@@ -115,8 +132,7 @@ class FittedInteraction:
                 "band_source": self.band_source}
 
     # -- draws ---------------------------------------------------------------------------
-    @cached_property
-    def _draws(self) -> PairDraws:
+    def _make_draws(self) -> PairDraws:
         if self._samples is not None:
             return self._joint_draws(self._samples)
         cov = self.record["covariance"]
@@ -147,45 +163,6 @@ class FittedInteraction:
                 sources.append(text + " (independent; not in the interaction samples)")
         text = "joint posterior samples of the interaction fit (" + ", ".join(samples) + ")"
         return PairDraws(pure[0], pure[1], self._fitted_only(rows), "; ".join([text, *sources]))
-
-    # -- properties ----------------------------------------------------------------------
-    def _predict(self, evaluate, band):
-        if band is None:
-            return evaluate(self._central)
-        return pair_band(self._draws, self._central, evaluate, check_band(band), self._options)
-
-    def viscosity(self, T, x1, band: float | None = None):
-        """Mixture viscosity μ_mix(T, x1) in Pa s (x1: mole fraction of the first gas)."""
-        return self._predict(lambda pair: pair.viscosity(T, x1), band)
-
-    @property
-    def has_conductivity_model(self) -> bool:
-        """True for two monatomic gases (translational conductivity is the whole of it) or a
-        pair whose :class:`~fitkin.mixture.GasPair` has a conductivity with internal energy."""
-        both_monatomic = is_monatomic(self.first.gas) and is_monatomic(self.second.gas)
-        return both_monatomic or self._central.has_conductivity_model
-
-    def conductivity(self, T, x1, band: float | None = None):
-        """Mixture thermal conductivity k_mix(T, x1) in W/(m K).
-
-        Two monatomic gases: the translational conductivity (the whole conductivity). A
-        polyatomic gas needs a mixture model with internal energy; without one this raises
-        :class:`FitkinError` (``pair().translational_conductivity`` gives the translational part).
-        """
-        if not self.has_conductivity_model:
-            raise FitkinError(f"{self._central.name}: at least one gas is polyatomic, and fitkin has no mixture "
-                              "conductivity with internal-energy transport for it; pair().translational_"
-                              "conductivity(T, x1) gives the translational part only")
-        return self._predict(lambda pair: pair.conductivity(T, x1), band)
-
-    def binary_diffusion(self, T, p=STANDARD_PRESSURE, x1=0.5, band: float | None = None):
-        """Binary diffusion coefficient D12(T, p, x1) in m²/s at pressure p (Pa).
-
-        Beyond the first approximation (the pair's ``approximation``, see
-        :meth:`fitkin.mixture.GasPair.binary_diffusion`) D12 depends weakly on x1, the mole
-        fraction of the first gas (default 0.5).
-        """
-        return self._predict(lambda pair: pair.binary_diffusion(T, p, x1), band)
 
     def __repr__(self) -> str:
         return f"FittedInteraction({self._central!r}, bands from {self.band_source})"
