@@ -32,7 +32,7 @@ from fitkin.theory.virial import second_virial
 
 __all__ = ["InversionResult", "invert_viscosity", "DEFAULT_TOLERANCE", "FLOOR_FRACTION", "SONINE_ORDER"]
 
-#: Converged when no point moves by more than this fraction of its uncertainty.
+#: Converged when no point moves by more than this fraction of its weighting uncertainty.
 DEFAULT_TOLERANCE = 0.2
 #: Floor of the energy uncertainty each point is weighted with, as a fraction of ε: the
 #: inversion function's dependence on the shape of the well (it is universal only on the
@@ -162,8 +162,9 @@ def invert_viscosity(T, viscosity, u_viscosity, *, molar_mass, start=None, viria
         (Potential, sigma [m], epsilon_over_k [K]).
     virial : None or (T [K], B [m³/mol], u(B) [m³/mol]); fixes the well depth.
     max_iterations : at most this many inversion steps.
-    tolerance : converged when every point moves by less than this fraction of its
-        uncertainty between iterations (default :data:`DEFAULT_TOLERANCE`) and the curve
+    tolerance : converged when every point moves by less than this fraction of the
+        uncertainty it is weighted with (its linearised u combined with
+        :data:`FLOOR_FRACTION` · ε) between iterations (default :data:`DEFAULT_TOLERANCE`) and the curve
         reproduces every viscosity within its u.
     perturbed_sets : number of data sets drawn from the stated u and refitted (0: none).
     seed : seed of those draws (recorded in the result).
