@@ -36,12 +36,11 @@ from ..errors import ParameterFileError
 from ..inference.posterior import MIN_DRAWS
 from ..io.json_record import read_json_record
 from ..io.record_check import check_record
+from .record import FORMAT_NAME, FORMAT_VERSION
 
 __all__ = ["FORMAT_NAME", "FORMAT_VERSION", "GAS_ROLES", "FITTED", "UNLIKE_PARAMETERS",
            "read_checked_interaction", "check_interaction_record", "interaction_samples"]
 
-FORMAT_NAME = "fitkin-interaction"
-FORMAT_VERSION = 1
 #: The two gases of a pair, in the order of the file (x1 is the mole fraction of the first).
 GAS_ROLES = ("first", "second")
 #: The parameters each parametrisation varies (what a draw of the unlike pair sets).
