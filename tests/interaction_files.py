@@ -14,13 +14,14 @@ from pathlib import Path
 
 import numpy as np
 
+from fitkin.cli import main
 from fitkin.interaction.reading import FORMAT_NAME, FORMAT_VERSION
 from fitkin.io.parameter_file import SCHEMA_NAME, SCHEMA_VERSION, write_parameter_file
 from fitkin.species import Gas
 
 UNITS = {"sigma12": "angstrom", "epsilon12_over_k": "K", "k12": "", "l12": ""}
 
-__all__ = ["pure_record", "write_pure", "interaction_record", "write_interaction"]
+__all__ = ["pure_record", "write_pure", "interaction_record", "write_interaction", "run"]
 
 
 def pure_record(formula, sigma, eps, u_sigma=0.0, u_eps=0.0, rho=0.0, order=1, collision="neufeld",
@@ -100,3 +101,10 @@ def write_interaction(folder, record, samples: dict | None = None) -> Path:
     path = folder / "interaction.json"
     path.write_text(json.dumps(record, indent=2) + "\n", encoding="utf-8")
     return path
+
+
+def run(capsys, *argv):
+    """``fitkin ARGV...`` in this process: (exit status, standard output, standard error)."""
+    code = main([str(a) for a in argv])
+    cap = capsys.readouterr()
+    return code, cap.out, cap.err

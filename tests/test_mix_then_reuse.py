@@ -14,13 +14,8 @@ from fitkin.cli import main
 from fitkin.interaction.synthetic import synthetic_mixture_csv
 from fitkin.mixture import GasPair
 
+from interaction_files import run
 from mixture_fixtures import AR, HE, TRUE_EPS12, TRUE_SIGMA12, pure_gas, write_pure
-
-
-def run(capsys, *argv):
-    code = main([str(a) for a in argv])
-    cap = capsys.readouterr()
-    return code, cap.out, cap.err
 
 
 @pytest.fixture(scope="module")

@@ -10,19 +10,12 @@ import numpy as np
 import pytest
 
 import fitkin
-from fitkin.cli import main
 from fitkin.interaction import PairPredictor
 from fitkin.mixture import GasPair
 
-from interaction_files import interaction_record, pure_record, write_interaction, write_pure
+from interaction_files import interaction_record, pure_record, run, write_interaction, write_pure
 
 COV = [[0.01**2, 0.3 * 0.01 * 1.5], [0.3 * 0.01 * 1.5, 1.5**2]]
-
-
-def run(capsys, *argv):
-    code = main([str(a) for a in argv])
-    cap = capsys.readouterr()
-    return code, cap.out, cap.err
 
 
 @pytest.fixture
