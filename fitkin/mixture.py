@@ -246,14 +246,17 @@ class GasPair(PairConductivity):
             "approximation": self.approximation,
             "binary_diffusion": self._described("binary_diffusion"),
             "mixture_viscosity": self._described("mixture_viscosity"),
-            "translational_conductivity": "Chapman–Enskog first approximation for mixtures, no internal energy",
+            "translational_conductivity": self._described("translational_conductivity") + ", no internal energy",
             "temperature_range_K": list(self.temperature_range),
         }
 
     def _described(self, what: str) -> str:
         if self.approximation == "first":
-            return ("Chapman–Enskog first approximation (composition independent)" if what == "binary_diffusion"
-                    else f"Chapman–Enskog first approximation for mixtures; μ1, μ2, μ12 at Sonine order {self.order}")
+            if what == "binary_diffusion":
+                return "Chapman–Enskog first approximation (composition independent)"
+            symbol = "μ" if what == "mixture_viscosity" else "k"
+            return (f"Chapman–Enskog first approximation for mixtures; {symbol}1, {symbol}2, {symbol}12 at Sonine "
+                    f"order {self.order}")
         if self.approximation == "sonine":
             return f"exact Sonine approximation of order {self.order} of the binary-mixture equations"
         return APPROXIMATIONS["kihara"]

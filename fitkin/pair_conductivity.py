@@ -15,6 +15,7 @@ import numpy as np
 
 from .errors import FitkinError, OutOfRangeError
 from .inference.model import is_monatomic
+from .theory import mixture_orders
 from .theory import mixtures as mix
 from .theory.mixture_conductivity import diffusion_ratio_first, internal_energy_mixture_conductivity
 
@@ -28,15 +29,25 @@ class PairConductivity:
     def translational_conductivity(self, T, x1):
         """Translational (monatomic) thermal conductivity of the mixture, W/(m K).
 
-        Chapman–Enskog first approximation for binary mixtures with the pure translational
-        conductivities of each gas's model and k12 of the unlike pair, each at the pair's
-        Sonine order (as for :meth:`viscosity`). For polyatomic gases the internal-energy
-        part is missing: this is not their whole conductivity. T (K) and x1 broadcast.
+        In the pair's approximation (as for :meth:`viscosity`): by default Kihara's second
+        approximation (:func:`fitkin.theory.mixture_orders.mixture_translational_conductivity`),
+        "sonine" the exact mixture Sonine order, "first" the Chapman–Enskog first
+        approximation for binary mixtures with the pure translational conductivities of each
+        gas's model and k12 of the unlike pair, each at the pair's Sonine order. For
+        polyatomic gases the internal-energy part is missing: this is not their whole
+        conductivity (see :meth:`conductivity`). T (K) and x1 broadcast.
         """
         T = self._temperatures(T)
         x1 = self._mole_fraction(x1)
         T, x1 = np.broadcast_arrays(T, x1)
         t = T.ravel()
+        if self.approximation != "first":
+            M1, M2 = self.molar_masses
+            approximation = self.order if self.approximation == "sonine" else "kihara"
+            out = mixture_orders.mixture_translational_conductivity(
+                approximation, t, x1.ravel(), M1, M2, self.first.sigma, self.second.sigma, self.sigma12,
+                self._mixture_omegas(t))
+            return out.reshape(T.shape)[()]
         t_star = t / self.epsilon12_over_k
         om = {ls: self._omega(self._pair_computed, *ls, t_star) for ls in ((1, 1), (1, 2), (1, 3), (2, 2))}
         a_star = om[2, 2] / om[1, 1]
@@ -81,8 +92,10 @@ class PairConductivity:
         gases = (self.first, self.second)
         if all(is_monatomic(g.gas) for g in gases):
             return out.reshape(T.shape)[()]
+        # each gas's internal part: its conductivity less the translational one of this
+        # approximation (the pure limit of the translational mixture value)
         internal = [np.zeros_like(t) if is_monatomic(g.gas) else
-                    np.ravel(g.conductivity(t)) - self._pure_property("conductivity", i, t) for i, g in enumerate(gases)]
+                    np.ravel(g.conductivity(t)) - self.translational_conductivity(t, 1.0 - i) for i, g in enumerate(gases)]
         omega12 = self._omega(self._pair_first, 1, 1, t / self.epsilon12_over_k)
         M = self.molar_masses
         ratios = []

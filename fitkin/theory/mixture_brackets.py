@@ -8,6 +8,10 @@ The linearised Boltzmann equations of a binary mixture are solved by the variati
   species-2 function of p = 0 is left out: with the species-1 one it spans the momentum
   collision invariant (m1 c1, m2 c2), which carries no diffusion);
 * viscosity: φ_(i,p) = S_{5/2}^{(p)}(W_i²) (W_i W_i − W_i²/3 I), p = 0, 1, …;
+* thermal conductivity: φ_(i,p) = S_{3/2}^{(p)}(W_i²) W_i, p = 1, 2, … (the p = 0 terms
+  describe thermal diffusion and drop out of the conductivity measured without a diffusion
+  flux: Hirschfelder, Curtiss & Bird 1954, §7.4, the determinants of [λ]_m with the rows
+  and columns of index 0 deleted, from memory);
 
 with W_i = c_i (m_i/2kT)^{1/2} (Chapman & Cowling 1970, §8.3, §9.3 and §12.3;
 Hirschfelder, Curtiss & Bird 1954, §7.4).  The bracket of two trial functions is the
@@ -37,8 +41,8 @@ m_aa = m_a/2).  Equal masses reproduce the pure-gas and tracer brackets of
 :mod:`fitkin.theory.brackets` (tested).
 
 Kihara's approximation (Kihara 1949, 1953, as described by Mason, J. Chem. Phys. 27, 75
-(1957); references from memory): the elements between trial functions of degree p ≥ 1 on
-both sides are evaluated as if the molecules were Maxwellian, i.e. with
+(1957); references from memory): the elements between trial functions beyond the first
+approximation (degree p ≥ 1; p ≥ 2 for conductivity) on both sides are evaluated as if the molecules were Maxwellian, i.e. with
 Ω(l,s) = Ω(l,l) Γ(s+3/2)/Γ(l+3/2), while the elements that involve the first trial
 functions are exact.  For pure gases this gives exactly the factors of
 :func:`fitkin.theory.sonine.kihara_viscosity_correction` and
@@ -68,7 +72,8 @@ __all__ = [
 ]
 
 #: The mixture problems: (tensor rank, first Sonine degree of species 1, of species 2).
-MIXTURE_PROBLEMS = {"diffusion": ("vector", 0, 1), "viscosity": ("tensor", 0, 0)}
+MIXTURE_PROBLEMS = {"diffusion": ("vector", 0, 1), "viscosity": ("tensor", 0, 0),
+                    "conductivity": ("vector", 1, 1)}
 
 #: Highest order derived for mixtures (the cost grows steeply with the order).
 MAX_MIXTURE_ORDER = 4
@@ -82,10 +87,18 @@ def basis(problem, order):
 
     >>> basis("diffusion", 2)
     ((1, 0), (1, 1), (2, 1))
+    >>> basis("conductivity", 1)
+    ((1, 1), (2, 1))
     """
     rank, first1, first2 = MIXTURE_PROBLEMS[problem]
-    return (tuple((1, p) for p in range(first1, order))
-            + tuple((2, p) for p in range(first2, order)))
+    top = order + _OFFSET.get(problem, 0)
+    return (tuple((1, p) for p in range(first1, top))
+            + tuple((2, p) for p in range(first2, top)))
+
+
+#: Degrees of the N-th conductivity approximation run from 1 to N (no p = 0 function); the
+#: degree of the first approximation's trial functions.
+_OFFSET = {"conductivity": 1}
 
 
 @lru_cache(maxsize=64)
@@ -155,7 +168,7 @@ def mixture_bracket_table(problem, order, mass_fraction1, kihara=False):
 
     Parameters
     ----------
-    problem : "diffusion" or "viscosity".
+    problem : "diffusion", "viscosity" or "conductivity".
     order : 1 ≤ order ≤ :data:`MAX_MIXTURE_ORDER`.
     mass_fraction1 : m1/(m1 + m2), 0 < value < 1.
     kihara : Kihara's approximation of the elements between trial functions of degree ≥ 1.
@@ -194,9 +207,9 @@ def _table(problem, order, m1, kihara):
         entries = {}
         for a, (i, p) in enumerate(functions):
             for b, (j, q) in enumerate(functions):
-                terms = _collision_terms(rank, order - 1, mass_a, slots, i, j)(p, q)
+                terms = _collision_terms(rank, order - 1 + _OFFSET.get(problem, 0), mass_a, slots, i, j)(p, q)
                 for pair, c in terms.items():
-                    if kihara and p >= 1 and q >= 1:
+                    if kihara and min(p, q) > _OFFSET.get(problem, 0):   # beyond the first approximation
                         pair, factor = _maxwellian(pair)
                         c *= factor
                     entries.setdefault(pair, np.zeros((n, n)))[a, b] += c * hard_sphere_omega(*pair)

@@ -1,11 +1,13 @@
-r"""Binary-mixture D12 and μ_mix beyond the first Chapman–Enskog approximation.
+r"""Binary-mixture D12, μ_mix and translational k_mix beyond the first Chapman–Enskog
+approximation.
 
 Two routes, both built on the unequal-mass bracket integrals of
 :mod:`fitkin.theory.mixture_brackets` (derived there):
 
 * Kihara's second approximation.  For D12 in closed form, :func:`kihara_diffusion_delta`
   (the coefficients below were derived here and checked against the bracket machinery);
-  for μ_mix through :func:`mixture_viscosity` with ``approximation="kihara"``.
+  for μ_mix and k_mix through :func:`mixture_viscosity` and
+  :func:`mixture_translational_conductivity` with ``approximation="kihara"``.
 * The exact N-th Sonine approximation (N ≤ 4), :func:`sonine_diffusion_factor` and
   :func:`mixture_viscosity` with ``approximation=N``.
 
@@ -40,6 +42,7 @@ __all__ = [
     "kihara_diffusion_factor",
     "sonine_diffusion_factor",
     "mixture_viscosity",
+    "mixture_translational_conductivity",
     "pair_scales",
 ]
 
@@ -224,24 +227,59 @@ def mixture_viscosity(approximation, T, x1, molar_mass1, molar_mass2, sigma1, si
     Parameters: T (K) and x1 broadcast; molar masses kg/mol; σ in m; ``omega`` as in
     :func:`sonine_diffusion_factor` (at T/ε of each collision type).
     """
+    return _lowest_projection("viscosity", approximation, T, x1, molar_mass1, molar_mass2, sigma1, sigma2,
+                              sigma12, omega, resummed)
+
+
+def mixture_translational_conductivity(approximation, T, x1, molar_mass1, molar_mass2, sigma1, sigma2, sigma12,
+                                       omega, resummed=False):
+    r"""Translational (monatomic) thermal conductivity of a binary mixture, W/(m K).
+
+    λ = κ' (kT)^{1/2} sᵀ B⁻¹ s with B the conductivity bracket matrix of
+    :mod:`fitkin.theory.mixture_brackets` (trial functions S^{(p)}_{3/2}(W_i²) W_i, p ≥ 1:
+    the conductivity without a diffusion flux) and s the projection of the source
+    (W_i² − 5/2) c_i, x_i/m_i^{1/2} on the degree-1 functions; κ' fixed by the pure-gas
+    first approximation k = (25/32)(π m kT)^{1/2} c_v/(π σ² Ω(2,2)* m) (Hirschfelder, Curtiss &
+    Bird 1954, eq. 8.2-31 and §7.4 for the mixture determinants, numbers from memory).
+
+    ``approximation`` as :func:`mixture_viscosity`: "first" equals
+    :func:`fitkin.theory.mixtures.binary_mixture_conductivity_first`; "kihara" and the orders
+    reduce for a gas mixed with itself to :func:`fitkin.theory.sonine.
+    kihara_conductivity_correction` and :func:`~fitkin.theory.sonine.conductivity_correction`
+    (tested).
+    """
+    return _lowest_projection("conductivity", approximation, T, x1, molar_mass1, molar_mass2, sigma1, sigma2,
+                              sigma12, omega, resummed)
+
+
+def _lowest_projection(problem, approximation, T, x1, molar_mass1, molar_mass2, sigma1, sigma2, sigma12, omega,
+                       resummed):
+    """κ (kT)^{1/2} sᵀB⁻¹s for viscosity or conductivity, the source on the lowest functions."""
     order, kihara = _check_order(approximation)
     M1 = float(molar_mass1) / (float(molar_mass1) + float(molar_mass2))
     T = np.asarray(T, dtype=float)
     x1 = np.asarray(x1, dtype=float)
-    B = bracket_matrix("viscosity", order, M1, _omega_values("viscosity", order, omega, kihara),
+    B = bracket_matrix(problem, order, M1, _omega_values(problem, order, omega, kihara),
                        pair_scales(molar_mass1, molar_mass2, sigma1, sigma2, sigma12), x1, kihara)
-    functions = basis("viscosity", order)
-    first = np.array([k for k, (_, p) in enumerate(functions) if p == 0])
+    functions = basis(problem, order)
+    lowest_degree = functions[0][1]
+    first = np.array([k for k, (_, p) in enumerate(functions) if p == lowest_degree])
+    # the source x_i (viscosity) or x_i/m_i^{1/2} (conductivity), scaled by x_i^{-1/2} as B is
+    weights = (1.0, 1.0) if problem == "viscosity" else tuple(
+        1.0 / math.sqrt(m / _NA) for m in (float(molar_mass1), float(molar_mass2)))
     s = np.zeros(B.shape[:-1])
-    s[..., first[0]] = np.sqrt(x1)            # the source x_i, scaled by x_i^{-1/2} as B is
-    s[..., first[1]] = np.sqrt(1.0 - x1)
+    s[..., first[0]] = np.sqrt(x1) * weights[0]
+    s[..., first[1]] = np.sqrt(1.0 - x1) * weights[1]
     lowest, linear, exact = _parts(B, s, first)
     value = lowest + linear if (kihara and not resummed) else exact
-    return _viscosity_constant() * np.sqrt(_KB * T) * value
+    return _constant(problem) * np.sqrt(_KB * T) * value
 
 
-def _viscosity_constant():
-    """κ with μ = κ (kT)^{1/2} sᵀB⁻¹s: for one gas B = ¼ t₀₀ σ²Ω(2,2)*/(m/2)^{1/2} (t₀₀ the
-    table's like element, which includes the rigid-sphere Ω(2,2)), so κ = (5/16) t₀₀/(2(2π)^{1/2})."""
-    t00 = mixture_bracket_table("viscosity", 1, 0.5)["11"][(2, 2)][0, 0]
-    return 5.0 / 16.0 * t00 / (2.0 * math.sqrt(2.0 * math.pi))
+def _constant(problem):
+    """κ with (μ or k) = κ (kT)^{1/2} sᵀB⁻¹s.  For one gas B = ¼ t σ²Ω(2,2)*/(m/2)^{1/2} (t the
+    table's like element of the lowest function, which includes the rigid-sphere Ω(2,2)):
+    viscosity (s = 1) κ = (5/16) t/(2(2π)^{1/2}); conductivity (s = m^{-1/2}, k = (75/64) k_B
+    (kT/πm)^{1/2}/(σ²Ω*)) κ = (75/64) k_B t/(2(2π)^{1/2})."""
+    t = mixture_bracket_table(problem, 1, 0.5)["11"][(2, 2)][0, 0]
+    lead = 5.0 / 16.0 if problem == "viscosity" else 75.0 / 64.0 * _KB
+    return lead * t / (2.0 * math.sqrt(2.0 * math.pi))
