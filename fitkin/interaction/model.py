@@ -57,7 +57,7 @@ def predict_with_pair(pair: GasPair, points: MixturePoints) -> np.ndarray:
             out[m] = pair.translational_conductivity(T, x1[m])
         else:
             p = points.pressure[m]
-            out[m] = pair.binary_diffusion(T, p) * p
+            out[m] = pair.binary_diffusion(T, p, x1=x1[m]) * p   # D12 depends on x1 beyond the first approximation
     return out
 
 
