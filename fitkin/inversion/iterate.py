@@ -90,6 +90,7 @@ class InversionResult:
     virial_temperatures: np.ndarray | None = None
     predicted_virial: np.ndarray | None = None
     seed: int = 20261203
+    quantum_virial: bool = False
 
 
 def _check(T, viscosity, u_viscosity, molar_mass, virial):
@@ -145,13 +146,24 @@ def _start(T, mu, u, molar_mass, virial, start):
                                         f"σ = {sigma / 1e-10:.4f} Å, ε/k = {eps:.3f} K")
 
 
+def _classical_virial(virial, potential, sigma, eps, molar_mass):
+    """(T, B − B_qm1, u): the data with the first quantum term of the current potential removed
+    (Wigner–Kirkwood; Hirschfelder, Curtiss & Bird 1954, §6.5, see :mod:`fitkin.theory.virial`)."""
+    if virial is None:
+        return None
+    tb, b, ub = virial
+    quantum = second_virial(potential, tb, sigma, eps, quantum=True, molar_mass=molar_mass)
+    return tb, b - (quantum - second_virial(potential, tb, sigma, eps)), ub
+
+
 def _vertical_change(new_r, new_u, old_r, old_u, slope):
     """Distance in U between two sets of points, measured at the new r̄ along the curve slope."""
     return (new_u - old_u) - slope * (new_r - old_r)
 
 
 def invert_viscosity(T, viscosity, u_viscosity, *, molar_mass, start=None, virial=None,
-                     max_iterations=10, tolerance=None, perturbed_sets=0, seed=20261203) -> InversionResult:
+                     max_iterations=10, tolerance=None, perturbed_sets=0, seed=20261203,
+                     quantum_virial=False) -> InversionResult:
     """Invert dilute-gas viscosity (plus B(T)) into the pair potential, self-consistently.
 
     Parameters
@@ -168,6 +180,10 @@ def invert_viscosity(T, viscosity, u_viscosity, *, molar_mass, start=None, viria
         reproduces every viscosity within its u.
     perturbed_sets : number of data sets drawn from the stated u and refitted (0: none).
     seed : seed of those draws (recorded in the result).
+    quantum_virial : the B(T) data include the quantum effects of a real gas: each iteration
+        subtracts the first Wigner–Kirkwood term of the current potential
+        (:func:`fitkin.theory.virial.second_virial`, ``quantum=True``) before fitting the
+        classical curve, and predicts B with it (off by default; about 1 u(B) for argon at 120 K).
 
     Returns
     -------
@@ -190,7 +206,7 @@ def invert_viscosity(T, viscosity, u_viscosity, *, molar_mass, start=None, viria
     c6_prior = params.c6
     energy_top = WALL_TOP_FACTOR * T.max()
     model = TransportModel(potential, order=SONINE_ORDER)
-    history, previous, converged = [], None, False
+    history, previous, converged, b_pred = [], None, False, None
     fit = table = None
     for k in range(1, int(max_iterations) + 1):
         pts = invert_points(model, sigma, eps, T, mu, molar_mass)
@@ -200,8 +216,9 @@ def invert_viscosity(T, viscosity, u_viscosity, *, molar_mass, start=None, viria
         r_join = min(float(pts.r.min()), 0.95 * sigma)
         energies = point_energies(model, T, (EPSILON_STEP[0] * params.epsilon_over_k,
                                              EPSILON_STEP[1] * params.epsilon_over_k))
+        vir_fit = _classical_virial(virial, model.potential, sigma, eps, molar_mass) if quantum_virial else virial
         fit = fit_curve(pts.r, energies, u_fit, params, r_join=r_join, sigma_scale=sigma_scale,
-                        virial=virial, c6_prior=c6_prior)
+                        virial=vir_fit, c6_prior=c6_prior)
         params = fit.curve.params
         try:
             table, grid_r, grid_u = tabulate_curve(fit.curve, energy_top)
@@ -218,19 +235,23 @@ def invert_viscosity(T, viscosity, u_viscosity, *, molar_mass, start=None, viria
                  "max_normalised": float(np.max(np.abs(deviation))), "point_change": change,
                  "sigma": sigma, "epsilon_over_k": eps}
         if virial is not None:
-            b_pred = second_virial(table, virial[0], sigma, eps)
+            b_pred = second_virial(table, virial[0], sigma, eps, quantum=quantum_virial, molar_mass=molar_mass)
             entry["virial_rms_normalised"] = float(np.sqrt(np.mean(((b_pred - virial[1]) / virial[2]) ** 2)))
         history.append(entry)
         previous = pts
         if change < tol and entry["max_normalised"] <= 1.0:
             converged = True
             break
-    return _result(T, mu, u_mu, molar_mass, virial, pts, u_point, u_fit, fit, table, grid_r, grid_u, model,
-                   history, converged, start_text, perturbed_sets, seed, c6_prior, predicted)
+    return _result(T, mu, u_mu, molar_mass, vir_fit, pts, u_point, u_fit, fit, table, grid_r, grid_u, model,
+                   history, converged, start_text, perturbed_sets, seed, c6_prior, predicted,
+                   b_pred, quantum_virial)
 
 
 def _result(T, mu, u_mu, molar_mass, virial, pts, u_point, u_fit, fit, table, grid_r, grid_u, model,
-            history, converged, start_text, perturbed_sets, seed, c6_prior, predicted) -> InversionResult:
+            history, converged, start_text, perturbed_sets, seed, c6_prior, predicted, b_pred,
+            quantum_virial) -> InversionResult:
+    """The :class:`InversionResult` of the last iteration (``virial`` is the classical B the
+    curve was fitted to)."""
     lo, hi = float(pts.r.min()), float(pts.r.max())
     curve_u = curve_uncertainty(fit, grid_r, u_point, u_fit, virial)
     spread = None
@@ -247,11 +268,11 @@ def _result(T, mu, u_mu, molar_mass, virial, pts, u_point, u_fit, fit, table, gr
                        "form, which itself tends to -C6/r^6",
             "inner_wall": f"Born-Mayer exponential inside {fit.curve.r_join / 1e-10:.4f} Å, slope "
                           f"{fit.curve.wall_slope * 1e-10:.3f} per Å"}
-    b_pred = None if virial is None else second_virial(table, virial[0], s, e)
     return InversionResult(
         temperatures=T, r=pts.r, energy_over_k=pts.energy_over_k, u_energy_over_k=u_point,
         u_energy_perturbed=spread, curve=table, curve_r=grid_r, curve_energy_over_k=grid_u,
         curve_u=curve_u, curve_probed=(grid_r >= lo) & (grid_r <= hi), sigma=s, epsilon_over_k=e,
         r_min=float(table.r_min_star * s), probed_range=(lo, hi), iterations=tuple(history),
         converged=converged, predicted_viscosity=predicted, start_description=start_text, tail=tail,
-        virial_temperatures=None if virial is None else virial[0], predicted_virial=b_pred, seed=int(seed))
+        virial_temperatures=None if virial is None else virial[0], predicted_virial=b_pred, seed=int(seed),
+        quantum_virial=bool(quantum_virial))
