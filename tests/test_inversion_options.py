@@ -12,7 +12,7 @@ TRUE = ExpSix(15.0)
 
 def test_start_at_the_true_potential_stays_there():
     # the iteration's fixed point: started at the potential that made the data, it stops at
-    # once (measured: 2 iterations, 0.2 % of ε)
+    # once (measured: 2 iterations, 0.31 % of ε)
     mu, u, virial = synthetic(TRUE)
     res = invert_viscosity(T, mu, u, molar_mass=ARGON_MASS, virial=virial, start=(TRUE, SIGMA, EPS))
     assert res.start_description.startswith("given: exp-6")
