@@ -61,6 +61,8 @@ _EPILOG_LIBRARY = """examples:
   fitkin library list fits.sqlite --gas argon
   fitkin library show fits.sqlite argon --potential mie
   fitkin library export fits.sqlite argon --out argon-again
+  fitkin library add fits.sqlite ar-he            (a folder fitkin mix wrote)
+  fitkin library show fits.sqlite argon+helium    (an unlike pair: both names, either order)
 """
 _EPILOG_MIX = """examples:
   fitkin mix fit-argon/parameters.json fit-helium/parameters.json ar-he_viscosity.csv --out ar-he
@@ -298,9 +300,10 @@ def _add_library_parser(sub) -> None:
     p = sub.add_parser("library", help="keep saved fits in one SQLite file: add, list, show, export",
                        epilog=_EPILOG_LIBRARY, formatter_class=argparse.RawDescriptionHelpFormatter)
     actions = p.add_subparsers(dest="library_command", metavar="ACTION", required=True)
-    a = actions.add_parser("add", help="store fit folders (parameters*.json and the files beside them)")
+    a = actions.add_parser("add", help="store fit folders (parameters*.json, interaction.json and the files beside them)")
     a.add_argument("db", metavar="DB", help="the library file (made if missing)")
-    a.add_argument("fits", nargs="+", metavar="FIT_DIR", help="folders fitkin fit wrote, or parameter files")
+    a.add_argument("fits", nargs="+", metavar="FIT_DIR",
+                   help="folders fitkin fit or fitkin mix wrote, or parameter / interaction files")
     a.add_argument("--label", default="", help="a label that tells these fits apart from other fits of the gas")
 
     def choose(q):
@@ -315,11 +318,11 @@ def _add_library_parser(sub) -> None:
     q.add_argument("--label", help="only fits with this label")
     q = actions.add_parser("show", help="one stored fit: its parameters and what else is stored of the gas")
     q.add_argument("db", metavar="DB")
-    q.add_argument("name", metavar="NAME", help="the gas's name (as list shows it)")
+    q.add_argument("name", metavar="NAME", help="the gas's name (as list shows it), or FIRST+SECOND for an unlike pair")
     choose(q)
     q = actions.add_parser("export", help="write a stored fit's parameter file (and samples) back, byte for byte")
     q.add_argument("db", metavar="DB")
-    q.add_argument("name", metavar="NAME")
+    q.add_argument("name", metavar="NAME", help="the gas's name, or FIRST+SECOND for an unlike pair")
     q.add_argument("--out", required=True, metavar="DIR", help="folder to write into")
     q.add_argument("--force", action="store_true", help="replace files of the same name in DIR")
     choose(q)

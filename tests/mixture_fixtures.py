@@ -6,11 +6,14 @@ invented for the tests. The mixture tables are synthetic (fitkin.interaction.syn
 """
 import numpy as np
 
+from fitkin.interaction.synthetic import synthetic_mixture_csv
+from fitkin.mixture import GasPair
+
 from fitkin.fitted import FittedGas
 from fitkin.io.parameter_file import SCHEMA_NAME, SCHEMA_VERSION, write_parameter_file
 from fitkin.species import Gas
 
-__all__ = ["pure_record", "pure_gas", "write_pure", "AR", "HE", "TRUE_SIGMA12", "TRUE_EPS12"]
+__all__ = ["pure_record", "pure_gas", "write_pure", "write_mixture_inputs", "AR", "HE", "TRUE_SIGMA12", "TRUE_EPS12"]
 
 #: (formula, σ Å, ε/k K, u(σ) Å, u(ε/k) K, correlation)
 AR = ("Ar", 3.418, 124.0, 0.004, 0.4, -0.8)
@@ -39,3 +42,15 @@ def pure_gas(spec, **kw):
 def write_pure(path, spec, **kw):
     write_parameter_file(pure_record(spec, **kw), path)
     return str(path)
+
+
+def write_mixture_inputs(folder):
+    """(argon file, helium file, table): the two pure parameter files and a synthetic mixture
+    table (μ_mix at x(Ar) = 20, 50, 80 % and D12, 150–700 K) of the pair TRUE_SIGMA12, TRUE_EPS12."""
+    ar, he = write_pure(folder / "ar.json", AR), write_pure(folder / "he.json", HE)
+    pair = GasPair(pure_gas(AR), pure_gas(HE), sigma12=TRUE_SIGMA12 * 1e-10, epsilon12_over_k=TRUE_EPS12)
+    table = folder / "mix.csv"
+    table.write_text(synthetic_mixture_csv(pair, np.linspace(150.0, 700.0, 5), [20.0, 50.0, 80.0],
+                                           diffusion_temperatures=np.linspace(150.0, 700.0, 5), seed=2),
+                     encoding="utf-8")
+    return ar, he, str(table)

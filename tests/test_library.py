@@ -15,7 +15,7 @@ import pytest
 import fitkin
 from fitkin.cli import main
 from fitkin.demo import synthetic_viscosity_csv
-from fitkin.library import LibraryError, open_library
+from fitkin.library import SCHEMA_VERSION, LibraryError, open_library
 
 
 @pytest.fixture(scope="module")
@@ -124,10 +124,10 @@ def test_damaged_stored_bytes_are_refused(library, tmp_path, capsys):
 def test_newer_schema_and_foreign_files_are_refused(library, tmp_path, capsys):
     con = sqlite3.connect(library)
     with con:
-        con.execute("UPDATE meta SET value = '2' WHERE key = 'schema_version'")
+        con.execute("UPDATE meta SET value = ? WHERE key = 'schema_version'", (str(SCHEMA_VERSION + 1),))
     con.close()
     assert main(["library", "list", str(library)]) == 2
-    assert "written by a newer fitkin (library schema version 2" in capsys.readouterr().err
+    assert f"written by a newer fitkin (library schema version {SCHEMA_VERSION + 1}" in capsys.readouterr().err
     (tmp_path / "notes.txt").write_text("not a database\n" * 100, encoding="utf-8")
     assert main(["library", "list", str(tmp_path / "notes.txt")]) == 2
     assert "is not a fitkin library" in capsys.readouterr().err

@@ -14,6 +14,10 @@ the newest one saved as ``parameters.json``** (the first shape of its ``fitkin f
 the creation time written in the file, then the last added), else the newest of the others
 (``parameters-NAME.json``, the further shapes of a comparison).
 
+Unlike-pair fits (``interaction.json`` of ``fitkin mix``) are kept beside the pure fits and
+found by the two gases' names: ``lib.interaction("argon", "helium")`` (see
+:mod:`fitkin.library.pairs`).
+
 The parameter file is stored whole, byte for byte, together with the files it names beside
 itself (posterior samples, a residuals sidecar); :meth:`Library.export` gives them back
 unchanged, each checked against its SHA-256.
@@ -31,7 +35,10 @@ import platformdirs
 from ..fitted import FittedGas, load_parameters
 from ..io.atomic import check_can_write, write_bytes_atomic
 from ..io.parameter_file import read_parameter_file
-from .store import FIT_COLUMNS, LibraryError, connect, insert_fit
+from ..interaction.loaded import FittedInteraction
+from .pairs import (INTERACTION_FILE, InteractionEntry, is_interaction_file, load_materialised, pair_query,
+                    store_interaction)
+from .store import FIT_COLUMNS, INTERACTION_COLUMNS, LibraryError, connect, insert_fit
 
 __all__ = ["Library", "LibraryEntry", "open_library", "side_file_names"]
 
@@ -84,9 +91,10 @@ def _recorded_digests(record: dict) -> dict:
 def _parameter_files(source: Path) -> list[Path]:
     if source.is_dir():
         files = sorted(source.glob("parameters*.json"), key=lambda p: (p.name != "parameters.json", p.name))
+        files += [source / INTERACTION_FILE] if (source / INTERACTION_FILE).is_file() else []
         if not files:
-            raise LibraryError(f"{source} holds no parameters.json; give a folder `fitkin fit` wrote, or a "
-                               "parameter file")
+            raise LibraryError(f"{source} holds no parameters.json or {INTERACTION_FILE}; give a folder "
+                               "`fitkin fit` or `fitkin mix` wrote, or one of those files")
         return files
     if not source.exists():
         raise LibraryError(f"{source}: no such fit folder or parameter file")
@@ -134,13 +142,17 @@ class Library:
         return False
 
     # -- adding ---------------------------------------------------------------------------
-    def add(self, source, *, label: str = "") -> list[tuple[LibraryEntry, bool]]:
-        """Add every parameter file of a fit folder (or one parameter file) with the files it
-        names beside itself; returns (entry, True if new, False if already stored) for each."""
+    def add(self, source, *, label: str = "") -> list[tuple[LibraryEntry | InteractionEntry, bool]]:
+        """Add every parameter file of a fit folder (or one parameter file), and the interaction
+        file of a ``fitkin mix`` folder (or one interaction file), each with the files it names
+        beside itself; returns (entry, True if new, False if already stored) for each."""
         return [self.add_file(p, label=label) for p in _parameter_files(Path(source))]
 
-    def add_file(self, path, *, label: str = "") -> tuple[LibraryEntry, bool]:
+    def add_file(self, path, *, label: str = "") -> tuple[LibraryEntry | InteractionEntry, bool]:
         path = Path(path)
+        if is_interaction_file(path):
+            pair_id, new = store_interaction(self._con, path, label)
+            return self.interaction_entry(pair_id), new
         record = read_parameter_file(path)  # a file fitkin can read again, or a clear refusal
         data = path.read_bytes()
         files, digests = {}, _recorded_digests(record)
@@ -230,17 +242,8 @@ class Library:
     def export(self, entry: LibraryEntry, out_dir, *, force: bool = False) -> list[Path]:
         """Write the fit's parameter file (under its own name) and the files beside it into
         ``out_dir``, byte for byte; each written file is read back and checked against its SHA-256."""
-        out_dir = Path(out_dir)
-        files = {entry.file_name: self.parameter_bytes(entry), **self.side_files(entry)}
-        for name in files:
-            check_can_write(out_dir / name, force)
-        written = []
-        for name, data in files.items():
-            path = write_bytes_atomic(out_dir / name, data, force=force)
-            if hashlib.sha256(path.read_bytes()).hexdigest() != hashlib.sha256(data).hexdigest():
-                raise LibraryError(f"{path} was written but reads back differently; check the disk")
-            written.append(path)
-        return written
+        return _write_checked({entry.file_name: self.parameter_bytes(entry), **self.side_files(entry)},
+                              out_dir, force)
 
     def fitted_gas(self, entry: LibraryEntry) -> FittedGas:
         """The fit as :func:`fitkin.load_parameters` gives it: the files are placed (once) in a
@@ -260,7 +263,83 @@ class Library:
         return self.get(name)
 
 
-def _materialised_folder(entry: LibraryEntry) -> Path:
+    # -- unlike pairs (fitkin mix) ------------------------------------------------------------
+    def interaction_entry(self, pair_id: int) -> InteractionEntry:
+        row = self._con.execute(f"SELECT {', '.join(INTERACTION_COLUMNS)} FROM interactions WHERE id = ?",
+                                (pair_id,)).fetchone()
+        if row is None:
+            raise LibraryError(f"{self.path}: no unlike-pair fit with id {pair_id}")
+        return InteractionEntry(*row)
+
+    def interaction_entries(self, first: str | None = None, second: str | None = None, *,
+                            label: str | None = None, date: str | None = None) -> list[InteractionEntry]:
+        """Stored unlike-pair fits: of the pair (either order) with both names, of every pair
+        holding the gas with one, all without; newest first within a pair."""
+        sql, args = pair_query(first, second, label=label, date=date)
+        return [InteractionEntry(*r) for r in self._con.execute(sql, args).fetchall()]
+
+    def select_interaction(self, first: str, second: str, *, label: str | None = None, date: str | None = None,
+                           pair_id: int | None = None) -> tuple[InteractionEntry, list[InteractionEntry]]:
+        """(the chosen fit of the pair, every fit that matched): the newest, or the fit ``pair_id``."""
+        if pair_id is not None:
+            entry = self.interaction_entry(pair_id)
+            if {entry.first, entry.second} != {first, second}:
+                raise LibraryError(f"{self.path}: pair id {pair_id} is {entry.pair}, not {first}–{second}")
+            return entry, [entry]
+        matches = self.interaction_entries(first, second, label=label, date=date)
+        if not matches:
+            asked = ", ".join(f"{k} {v!r}" for k, v in (("label", label), ("date", date)) if v is not None)
+            stored = self.interaction_entries(first, second)
+            if stored:
+                raise LibraryError(f"{self.path}: no fit of {first}–{second} with {asked}; its fits: "
+                                   + "; ".join(e.describe() for e in stored))
+            known = ", ".join(sorted({e.pair for e in self.interaction_entries()})) or "none yet"
+            raise LibraryError(f"{self.path}: no unlike-pair fit of {first} with {second}; the library holds "
+                               f"pairs: {known} (fitkin mix fits one; fitkin library add DB MIX_DIR stores it)")
+        return matches[0], matches
+
+    def interaction_bytes(self, entry: InteractionEntry) -> bytes:
+        row = self._con.execute("SELECT content FROM interactions WHERE id = ?", (entry.id,)).fetchone()
+        return _checked(bytes(row[0]), entry.sha256, f"the stored interaction file of {entry.describe()}")
+
+    def interaction_side_files(self, entry: InteractionEntry) -> dict[str, bytes]:
+        rows = self._con.execute("SELECT name, sha256, content FROM interaction_files WHERE interaction_id = ? "
+                                 "ORDER BY name", (entry.id,)).fetchall()
+        return {name: _checked(bytes(content), digest, f"the stored {name} of {entry.describe()}")
+                for name, digest, content in rows}
+
+    def export_interaction(self, entry: InteractionEntry, out_dir, *, force: bool = False) -> list[Path]:
+        """Write the interaction file and its samples into ``out_dir``, byte for byte, checked."""
+        return _write_checked({entry.file_name: self.interaction_bytes(entry), **self.interaction_side_files(entry)},
+                              out_dir, force)
+
+    def interaction(self, first: str, second: str, **criteria) -> FittedInteraction:
+        """The fitted unlike pair as :func:`fitkin.load_interaction` gives it (``label``, ``date``,
+        ``pair_id`` choose among several fits; default the newest)."""
+        entry = self.select_interaction(first, second, **criteria)[0]
+        folder = _materialised_folder(entry)
+        placed = folder / entry.file_name
+        if not placed.is_file() or hashlib.sha256(placed.read_bytes()).hexdigest() != entry.sha256:
+            self.export_interaction(entry, folder, force=True)
+        return load_materialised(folder, entry)
+
+
+def _write_checked(files: dict[str, bytes], out_dir, force: bool) -> list[Path]:
+    """Write each {name: bytes} into ``out_dir`` atomically (none unless all may be written),
+    read each back and check it against the SHA-256 of what was meant."""
+    out_dir = Path(out_dir)
+    for name in files:
+        check_can_write(out_dir / name, force)
+    written = []
+    for name, data in files.items():
+        path = write_bytes_atomic(out_dir / name, data, force=force)
+        if hashlib.sha256(path.read_bytes()).hexdigest() != hashlib.sha256(data).hexdigest():
+            raise LibraryError(f"{path} was written but reads back differently; check the disk")
+        written.append(path)
+    return written
+
+
+def _materialised_folder(entry) -> Path:
     base = os.environ.get("FITKIN_CACHE_DIR")
     root = Path(base) if base else Path(platformdirs.user_cache_dir("fitkin"))
     return root / "library" / entry.sha256
