@@ -43,10 +43,14 @@ from fitkin.batch.manifest import load_manifest
 from fitkin.cli import main as fitkin_main
 from fitkin.gas_file import read_gas_file
 from fitkin.inference.model import ForwardModel
+from fitkin.interaction.synthetic import synthetic_mixture_csv
+from fitkin.mixture import GasPair
 from fitkin.potentials import LennardJones
 from fitkin.species import Gas
 from fitkin.theory.internal import InternalEnergyTransport
 from fitkin.theory.transport import TransportModel
+
+from mixture_fixtures import pure_gas
 
 ROOT = Path(__file__).resolve().parent.parent
 DOCUMENTS = [ROOT / "README.md", *sorted((ROOT / "docs").glob("*.md"))]
@@ -144,6 +148,14 @@ def make_workspace(folder: Path) -> Path:
         y = _noisy(model.property(kind, theta, Tc), 0.003, seed)
         _write_csv(folder / name, f"T [K],{kind} [{unit}],u({kind}) [%]",
                    [(f"{t:.2f}", f"{v * scale:.5f}", 0.3) for t, v in zip(Tc, y)])
+    # an argon–helium mixture table (mixture viscosity at three compositions, D12 at 1 atm): a
+    # GasPair of the argon and helium above with σ12 = 2.98 Å, ε12/k = 36 K (chosen), seeded noise
+    pair = GasPair(pure_gas(("Ar", 3.35, 143.0, 0.004, 0.4, -0.8), order=3, collision="computed"),
+                   pure_gas(("He", 2.60, 10.5, 0.004, 0.08, -0.8), order=3, collision="computed"),
+                   sigma12=2.98e-10, epsilon12_over_k=36.0)
+    (folder / "ar_he_mixture.csv").write_text(synthetic_mixture_csv(
+        pair, np.linspace(200.0, 700.0, 6), [25.0, 50.0, 75.0], diffusion_temperatures=np.linspace(250.0, 650.0, 5),
+        seed=9), encoding="utf-8")
     # the bundled synthetic sample data, as files and as the folder the README names
     shutil.copytree(ROOT / "sample_data", folder / "sample_data", dirs_exist_ok=True)
     for name in ("demo_krypton_viscosity.csv", "demo_krypton_conductivity.txt", "example_gas_co2.toml"):
