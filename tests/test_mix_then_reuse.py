@@ -73,3 +73,18 @@ def test_fitted_deviations_reused(mixed):
     assert fitted.pair().rule == "kong" and "(k12, l12)" in fitted.band_source
     _, lo, hi = fitted.viscosity([300.0, 600.0], 0.3, band=0.95)
     assert np.all(lo < fitted.viscosity([300.0, 600.0], 0.3)) and np.all(fitted.viscosity([300.0, 600.0], 0.3) < hi)
+
+
+def test_sampling_with_a_pure_prior_that_reaches_zero(mixed, tmp_path, capsys):
+    # a poorly determined helium fit (ε/k = 7.1 ± 2.4 K, as from viscosity at T* > 20): with seed 3
+    # walkers reach ε/k ≤ 0 within 150 steps, where no pair exists; the sampler must give those
+    # zero probability instead of stopping with a traceback
+    _, _, tmp = mixed
+    ar = write_pure(tmp_path / "ar.json", AR)
+    he = write_pure(tmp_path / "he.json", ("He", 2.676, 7.1, 0.067, 2.4, -0.5))
+    code, out, err = run(capsys, "mix", ar, he, tmp / "mix.csv", "--out", tmp_path / "m", "--no-report", "--sample",
+                         "--seed", "3", "--max-steps", "150")
+    assert code == 0, err
+    assert "Traceback" not in out + err
+    samples = np.load(tmp_path / "m" / "interaction_samples.npz")
+    assert np.all(samples["second.epsilon_over_k"] > 0)

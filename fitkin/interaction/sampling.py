@@ -112,6 +112,9 @@ def sample_interaction(model: InteractionModel, points: MixturePoints, start: Le
         lp = theta_priors.log_prob(x[:, :k])
         for p, sl in slices:
             lp = lp + p.log_prob(x[:, sl])
+            # a Gaussian pure-gas prior reaches σ ≤ 0 or ε/k ≤ 0, where no pair exists: probability 0
+            size = [i for i, n in enumerate(p.names) if n in ("sigma", "epsilon_over_k")]
+            lp[np.any(x[:, sl][:, size] <= 0, axis=1)] = -np.inf
         for i in np.flatnonzero(np.isfinite(lp)):
             theta = dict(zip(model.names, x[i, :k]))
             try:
