@@ -9,6 +9,7 @@ checks that they match what this script writes.
 """
 from __future__ import annotations
 
+import importlib.util
 import sys
 from pathlib import Path
 
@@ -707,10 +708,20 @@ print(f"true value (the synthetic truth): {truth.viscosity(1000.0, gas.molar_mas
 ]
 
 
+def _cells_of(module_name: str) -> list:
+    """The cells of a notebook kept in its own module beside this script (``CELLS``: (kind, text)),
+    with the caution at the end."""
+    spec = importlib.util.spec_from_file_location(module_name, HERE / f"{module_name}.py")
+    module = importlib.util.module_from_spec(spec)
+    spec.loader.exec_module(module)
+    return [_md(text) if kind == "markdown" else _code(text) for kind, text in module.CELLS] + [_md(CAUTION)]
+
+
 NOTEBOOKS = {
     "01_fit_a_monatomic_gas.ipynb": FIT_CELLS,
     "02_reuse_parameters_downstream.ipynb": REUSE_CELLS,
     "03_plan_measurements.ipynb": PLAN_CELLS,
+    "04_mixture_pair.ipynb": _cells_of("cells_mixture_pair"),
 }
 
 
