@@ -12,7 +12,7 @@ import numpy as np
 import pytest
 
 import fitkin
-from fitkin.errors import FitkinError, ParameterFileError
+from fitkin.errors import FitkinError, OutOfRangeError, ParameterFileError
 from fitkin.fitted import FittedGas
 from fitkin.interaction import FittedInteraction
 from fitkin.mixture import GasPair
@@ -204,3 +204,11 @@ def test_samples_without_a_fitted_parameter_are_refused(tmp_path):
                              {"sigma12": rng.normal(2.95, 0.01, 50), "first.sigma": rng.normal(3.35, 0.01, 50)})
     with pytest.raises(ParameterFileError, match="lacks the fitted epsilon12_over_k"):
         fitkin.load_interaction(path)
+
+
+def test_a_covariance_that_reaches_zero_gives_no_band_and_says_why(tmp_path):
+    # ε12/k = 10 ± 8 K: a fifth of the Gaussian draws have ε12/k ≤ 0, where no pair exists
+    pair = fitkin.load_interaction(write_interaction(tmp_path, interaction_record(AR, HE, 2.95, 10.0, _cov(0.01, 8.0))))
+    with pytest.raises(OutOfRangeError, match=r"give no pair at all .*\(fitkin mix --sample\)"):
+        pair.viscosity(300.0, 0.5, band=0.95)
+    assert pair.viscosity(300.0, 0.5) > 0

@@ -143,6 +143,7 @@ def pair_band(draws: PairDraws, central: GasPair, evaluate, band: float, options
     :class:`fitkin.errors.OutOfRangeError`.
     """
     band = check_band(band)
+    no_pair = []
 
     def one(i):
         try:
@@ -150,7 +151,15 @@ def pair_band(draws: PairDraws, central: GasPair, evaluate, band: float, options
         except OutOfRangeError:
             raise
         except FitkinError as exc:
+            no_pair.append(i)
             raise OutOfRangeError(str(exc)) from None
         return evaluate(pair)
 
-    return band_over_draws(range(len(draws)), one, band)
+    try:
+        return band_over_draws(range(len(draws)), one, band)
+    except OutOfRangeError as exc:
+        if not no_pair:
+            raise
+        raise OutOfRangeError(f"{exc}: {len(no_pair)} of them give no pair at all (a σ or ε/k ≤ 0: the Gaussian "
+                              "approximation of a poorly determined parameter reaches zero). Bands from posterior "
+                              "samples (fitkin mix --sample) respect the bounds") from None
