@@ -3,8 +3,8 @@
 The interaction files are synthetic (tests/interaction_files.py: chosen σ12, ε12/k and
 covariances of an argon–helium-like pair; no real fit). Checks are against GasPair at the
 same parameters (the same theory, so to rounding) and against first-order (linear) error
-propagation where the model is nearly linear over the band (common practice, GUM 2008,
-JCGM 100 §5.1.2), with a tolerance of 15 % of the band for the quantiles of 400 draws.
+propagation where the model is nearly linear over the band (common practice; GUM, JCGM 100:2008
+§5.1.2, section number from memory), with a tolerance of 15 % of the band for the quantiles of 400 draws.
 """
 import json
 
