@@ -63,10 +63,13 @@ def prediction_table(gas, T, pressure, band=None, pair=None, x1=None):
         limits = pair.binary_diffusion(T, pressure, band=band) if band is not None else None
         _with_band(cols, f"binary diffusion with {pair.names[1]} at {pressure:g} Pa [cm^2/s]",
                    pair.binary_diffusion(T, pressure) * 1e4, band, limits and tuple(v * 1e4 for v in limits))
-        for x in (x1 if x1 is not None else ()):
-            limits = pair.viscosity(T, x, band=band) if band is not None else None
-            _with_band(cols, f"mixture viscosity x({gas.gas.name}) = {x:g} [uPa s]", pair.viscosity(T, x) * 1e6,
-                       band, limits and tuple(v * 1e6 for v in limits))
+        if x1:  # one (T, x1) grid: a band's draws are evaluated once for every composition
+            grid = np.asarray(T, dtype=float)[:, None], np.asarray(x1, dtype=float)[None, :]
+            point = pair.viscosity(*grid) * 1e6
+            limits = tuple(v * 1e6 for v in pair.viscosity(*grid, band=band)) if band is not None else None
+            for j, x in enumerate(x1):
+                _with_band(cols, f"mixture viscosity x({gas.gas.name}) = {x:g} [uPa s]", point[:, j], band,
+                           limits and tuple(v[:, j] for v in limits))
     lo_T, hi_T = gas.temperature_range
     if pair is not None:  # a mixture is only as measured as the less-measured of its two gases
         second = pair.pair().second.temperature_range
