@@ -266,6 +266,9 @@ def _add_mix_parser(sub) -> None:
     p.add_argument("--pressure-limit", default="1 MPa", metavar="P",
                    help="warn about points stated above this pressure (default: 1 MPa)")
     p.add_argument("--pair-shape", help="potential of the unlike pair when the two fits used different shapes")
+    p.add_argument("--approximation", choices=("kihara", "first", "sonine"), default="kihara",
+                   help="Chapman–Enskog approximation of D12 and μ_mix: kihara (second approximation, default), "
+                        "first, or sonine (exact mixture Sonine order)")
     samp = p.add_argument_group("posterior sampling (the pure gases' parameters marginalised)")
     samp.add_argument("--sample", action="store_true", help="sample the posterior with emcee after the fit")
     samp.add_argument("--fix-pure", action="store_true",

@@ -6,12 +6,10 @@ invented for the tests. The mixture tables are synthetic (fitkin.interaction.syn
 """
 import numpy as np
 
-from fitkin.interaction.synthetic import synthetic_mixture_csv
-from fitkin.mixture import GasPair
-
 from fitkin.fitted import FittedGas
-from fitkin.io.parameter_file import SCHEMA_NAME, SCHEMA_VERSION, write_parameter_file
-from fitkin.species import Gas
+from fitkin.interaction.synthetic import synthetic_mixture_csv, synthetic_pure_record
+from fitkin.io.parameter_file import write_parameter_file
+from fitkin.mixture import GasPair
 
 __all__ = ["pure_record", "pure_gas", "write_pure", "write_mixture_inputs", "AR", "HE", "TRUE_SIGMA12", "TRUE_EPS12"]
 
@@ -23,16 +21,7 @@ TRUE_SIGMA12, TRUE_EPS12 = 3.05, 30.0
 
 
 def pure_record(spec, order=1, collision="neufeld"):
-    formula, s, e, us, ue, rho = spec
-    cov = [[us * us, rho * us * ue], [rho * us * ue, ue * ue]]
-    return {"schema": SCHEMA_NAME, "schema_version": SCHEMA_VERSION,
-            "gas": Gas.from_formula(formula).to_dict(),
-            "potential": {"name": "lj", "shape_parameters": {}, "free_shape": []},
-            "parameters": {"sigma": {"value": s, "stderr": us, "unit": "angstrom", "varied": True},
-                           "epsilon_over_k": {"value": e, "stderr": ue, "unit": "K", "varied": True}},
-            "covariance": {"names": ["sigma", "epsilon_over_k"], "matrix": cov},
-            "theory": {"sonine_order": order, "collision_integrals": collision},
-            "data": {"temperature_range_K": [200.0, 1000.0]}}
+    return synthetic_pure_record(*spec, order=order, collision=collision)
 
 
 def pure_gas(spec, **kw):

@@ -173,3 +173,41 @@ def test_mistakes_exit_2_with_file_row_column(tmp_path, capsys, files):
 def test_fit_refuses_a_mixture_table(tmp_path, capsys, files):
     code, _, err = run(capsys, "fit", files[2], "--formula", "Ar", "--out", tmp_path / "f")
     assert code == 2 and "fitkin mix" in err and "x(Ar) [%]" in err
+
+
+def test_approximation_is_recorded_and_the_file_reloads(tmp_path, capsys, files):
+    import fitkin
+    out = tmp_path / "first"
+    code, _, err = run(capsys, "mix", *files, "--out", out, "--approximation", "first")
+    assert code == 0, err
+    r = record(out)
+    assert r["pair_options"]["approximation"] == "first" and r["approximation"].startswith("first:")
+    kihara = tmp_path / "kihara"
+    assert run(capsys, "mix", *files, "--out", kihara)[0] == 0
+    assert record(kihara)["pair_options"]["approximation"] == "kihara"
+    # the two approximations differ by about 1 % in D12, so the fitted pairs differ
+    assert record(kihara)["parameters"]["sigma12"]["value"] != r["parameters"]["sigma12"]["value"]
+    loaded = fitkin.load_interaction(kihara / "interaction.json")
+    assert loaded.pair().sigma12 == pytest.approx(record(kihara)["parameters"]["sigma12"]["value"] * 1e-10)
+    assert loaded.pair().approximation == "kihara"
+    code, _, err = run(capsys, "mix", *files, "--out", tmp_path / "x", "--approximation", "third")
+    assert code == 2 and "invalid choice" in err
+
+
+def test_bundled_mixture_sample_files_are_what_the_generator_makes(tmp_path, capsys):
+    from pathlib import Path
+
+    from fitkin.interaction.synthetic import EXAMPLE_PAIR, example_pair_files
+    sample = Path(__file__).resolve().parents[1] / "sample_data"
+    files = example_pair_files()
+    for name, text in files.items():
+        assert (sample / name).read_text(encoding="utf-8") == text, f"regenerate {name}"
+        assert "SYNTHETIC" in text
+    folder = sample / "mixture"
+    code, _, err = run(capsys, "mix", folder / "argon_synthetic.json", folder / "krypton_synthetic.json",
+                       folder / "ar-kr_mixture.csv", "--out", tmp_path / "m", "--no-report")
+    assert code == 0, err
+    p = record(tmp_path / "m")["parameters"]
+    # the synthetic data were made with EXAMPLE_PAIR's unlike pair: recovered within 3 standard errors
+    for name in ("sigma12", "epsilon12_over_k"):
+        assert abs(p[name]["value"] - EXAMPLE_PAIR[name]) < 3 * p[name]["stderr"]

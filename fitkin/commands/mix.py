@@ -44,7 +44,8 @@ def run_mix(args, out) -> int:
                           priors=dict(map(parse_prior_assignment, args.prior)) or None, walkers=args.walkers,
                           max_steps=args.max_steps, seed=args.seed, marginalise=not args.fix_pure,
                           progress=sys.stderr.isatty(),
-                          pair_options={"shape": args.pair_shape} if args.pair_shape else None,
+                          pair_options={"approximation": args.approximation,
+                                        **({"shape": args.pair_shape} if args.pair_shape else {})},
                           read_options=read_options)
     for table in fit.points.tables:
         for w in table.warnings:

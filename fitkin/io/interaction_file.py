@@ -1,4 +1,5 @@
-"""Writing and reading interaction files (``interaction.json``) and their samples file.
+"""Writing interaction files (``interaction.json``) and their samples file (reading and
+checking them: :mod:`fitkin.interaction.reading`).
 
 The record is built by :func:`fitkin.interaction.record.interaction_record`; here it is only
 turned into JSON (numbers cleaned: NaN → null) and written atomically, never replacing an
@@ -13,11 +14,10 @@ from pathlib import Path
 
 import numpy as np
 
-from fitkin.errors import ParameterFileError
 from fitkin.io.atomic import check_can_write, write_bytes_atomic, write_text_atomic
 from fitkin.io.parameter_file import json_safe
 
-__all__ = ["write_interaction_file", "read_interaction_file", "write_samples_file", "file_reference"]
+__all__ = ["write_interaction_file", "write_samples_file", "file_reference"]
 
 
 def file_reference(path) -> dict:
@@ -39,15 +39,3 @@ def write_samples_file(arrays: dict, path, force: bool = False) -> Path:
     np.savez_compressed(buffer, **{k: np.asarray(v, dtype=float) for k, v in arrays.items()})
     return write_bytes_atomic(path, buffer.getvalue(), force=force)
 
-
-def read_interaction_file(path) -> dict:
-    """The record of an interaction file; ParameterFileError when it is not one."""
-    try:
-        record = json.loads(Path(path).read_text(encoding="utf-8"))
-    except FileNotFoundError:
-        raise ParameterFileError(f"{path}: file not found") from None
-    except (OSError, ValueError) as exc:
-        raise ParameterFileError(f"{path}: not a readable interaction file ({exc})") from None
-    if not isinstance(record, dict) or record.get("format") != "fitkin-interaction":
-        raise ParameterFileError(f"{path}: not a fitkin interaction file (written by fitkin mix)")
-    return record
