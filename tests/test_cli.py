@@ -113,3 +113,11 @@ def test_predict_bad_inputs(tmp_path, capsys):
     p.write_text("{}", encoding="utf-8")
     code, _, err = run(capsys, "predict", str(p), "-T", "300")
     assert code == 2 and "not a fitkin parameter file" in err
+
+
+def test_main_takes_paths_as_python_callers_pass_them(tmp_path, capsys):
+    # fitkin.cli.main is documented for notebooks and scripts, where pathlib.Path is the usual
+    # argument; it must read as the same command line (here: a missing file, exit 2 with the message)
+    code = main(["check", tmp_path / "missing.csv"])
+    assert code == 2
+    assert "missing.csv: file not found" in capsys.readouterr().err

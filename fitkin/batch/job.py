@@ -26,7 +26,7 @@ from pathlib import Path
 
 from threadpoolctl import threadpool_limits
 
-from ..cli import subcommand_parser
+from ..grammar import subcommand_parser
 from ..cli_checks import check_arguments
 from ..commands.fit import fit_job_from_args
 from ..errors import FitkinError, FitkinWarning, InputProblems, UsageError

@@ -29,7 +29,7 @@ import tomllib
 from dataclasses import dataclass
 from pathlib import Path
 
-from ..cli import subcommand_parser
+from ..grammar import subcommand_parser
 from ..errors import InputError, InputProblems
 from ..inference.compare import POTENTIAL_NAMES
 
