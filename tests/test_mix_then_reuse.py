@@ -4,6 +4,7 @@
 Data: synthetic (fitkin.interaction.synthetic) for the Ar–He pair of tests/mixture_fixtures.py;
 checks are consistency between the command's record and the reuse side (the same theory).
 """
+import hashlib
 import json
 
 import numpy as np
@@ -65,6 +66,24 @@ def test_sampled_interaction_uses_its_joint_samples(mixed, capsys):
         assert code == 2 and "interaction_samples.npz is missing" in err
     finally:
         (tmp / "post" / "moved.npz").rename(tmp / "post" / "interaction_samples.npz")
+
+
+def test_sampled_record_carries_the_samples_hash(mixed, capsys):
+    # a samples file of another run put beside the record must be refused, not used for bands
+    ar, he, tmp = mixed
+    record = json.loads((tmp / "post" / "interaction.json").read_text())
+    samples = tmp / "post" / "interaction_samples.npz"
+    assert record["posterior"]["samples_sha256"] == hashlib.sha256(samples.read_bytes()).hexdigest()
+    original = samples.read_bytes()
+    data = dict(np.load(samples))
+    data["sigma12"] = data["sigma12"] + 0.01
+    np.savez_compressed(samples, **data)
+    try:
+        code, _, err = run(capsys, "predict", ar, "-T", "300", "--with", he, "--interaction",
+                           tmp / "post" / "interaction.json", "--band", "0.9")
+        assert code == 2 and "does not match the SHA-256" in err
+    finally:
+        samples.write_bytes(original)
 
 
 def test_fitted_deviations_reused(mixed):

@@ -57,10 +57,12 @@ def run_mix(args, out) -> int:
     written = []
     if fit.posterior is not None:
         written.append(write_samples_file(samples_arrays(fit), planned["samples"], force=args.force))
-    elif planned["samples"].exists():  # --force over a sampled run: its samples describe another fit
+        # the reader checks the samples against this hash (fitkin.interaction.reading)
+        record["posterior"]["samples_sha256"] = file_reference(planned["samples"])["sha256"]
+    written.append(write_interaction_file(record, planned["record"], force=args.force))
+    if fit.posterior is None and planned["samples"].exists():  # --force over a sampled run's samples
         planned["samples"].unlink()
         print(f"removed {planned['samples']} (of the replaced fit; this one was not sampled)", file=out)
-    written.append(write_interaction_file(record, planned["record"], force=args.force))
     if not args.no_report:
         written.append(write_interaction_report(fit, record, out_dir, force=args.force))
     elif planned["report"].exists():
