@@ -198,9 +198,28 @@ class FittedGas:
         return self.predict("second_virial", T, band=band)
 
     @property
+    def conductivity_missing(self) -> str | None:
+        """What the parameter file lacks for the whole conductivity k(T), or None when it has it:
+        a polyatomic gas needs an internal-energy conductivity model (``theory.internal_energy``)
+        and what that model needs of the gas entry (its ideal-gas heat capacity, and for some
+        models the rotational part of it)."""
+        if is_monatomic(self.gas):
+            return None
+        internal = self._forward.internal
+        if internal is None:
+            return "no internal-energy conductivity model (theory.internal_energy); it was fitted without one"
+        hc = self.gas.heat_capacity
+        if internal.needs_heat_capacity and hc is None:
+            return f"no ideal-gas heat capacity (gas.heat_capacity), which its '{internal.name}' model needs"
+        if internal.needs_rotational_split and hc is not None and not hc.has_rotational_split:
+            return (f"no rotational part of the heat capacity (gas.heat_capacity.geometry), which its "
+                    f"'{internal.name}' model needs")
+        return None
+
+    @property
     def has_conductivity_model(self) -> bool:
-        """False for a polyatomic gas fitted without an internal-energy conductivity model."""
-        return is_monatomic(self.gas) or self._forward.internal is not None
+        """False when the whole conductivity cannot be predicted (:attr:`conductivity_missing`)."""
+        return self.conductivity_missing is None
 
     def predict(self, kind: str, T, pressure=None, band: float | None = None):
         """Property ``kind`` ('viscosity', 'conductivity', 'self_diffusion') at temperatures T."""

@@ -247,6 +247,8 @@ class GasPair(PairConductivity):
             "binary_diffusion": self._described("binary_diffusion"),
             "mixture_viscosity": self._described("mixture_viscosity"),
             "translational_conductivity": self._described("translational_conductivity") + ", no internal energy",
+            "conductivity": "the translational conductivity plus each polyatomic gas's fitted internal part, "
+                            "carried by diffusion (Hirschfelder 1957)",
             "temperature_range_K": list(self.temperature_range),
         }
 

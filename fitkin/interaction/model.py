@@ -18,7 +18,7 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from ..errors import FitError
+from ..errors import FitError, FitkinError
 from ..fitted import FittedGas
 from ..inference.model import ANGSTROM, is_monatomic
 from ..mixture import GasPair
@@ -54,7 +54,7 @@ def predict_with_pair(pair: GasPair, points: MixturePoints) -> np.ndarray:
         if kind == "mixture viscosity":
             out[m] = pair.viscosity(T, x1[m])
         elif kind == "mixture conductivity":
-            out[m] = pair.translational_conductivity(T, x1[m])
+            out[m] = pair.conductivity(T, x1[m])   # what a reused pair predicts (internal energy included)
         else:
             p = points.pressure[m]
             out[m] = pair.binary_diffusion(T, p, x1=x1[m]) * p   # D12 depends on x1 beyond the first approximation
@@ -115,13 +115,27 @@ class InteractionModel:
         return predict_with_pair(self.pair(theta, first, second), points)
 
     def check_points(self, points: MixturePoints) -> None:
-        """Refuse data the pair cannot predict (conductivity of a polyatomic pair)."""
-        if "mixture conductivity" in points.kinds:
-            poly = [g.gas.name or g.gas.formula for g in (self.first, self.second) if not is_monatomic(g.gas)]
-            if poly:
-                raise FitError(f"mixture conductivity is predicted for monatomic pairs only (translational "
-                               f"Chapman–Enskog); {', '.join(poly)} carries internal energy. Leave the "
-                               "conductivity column out of the mixture table")
+        """Refuse data the pair cannot predict: mixture conductivity when a gas's parameter file
+        lacks what its whole conductivity needs (:attr:`fitkin.fitted.FittedGas.conductivity_missing`),
+        or when that conductivity cannot be evaluated at the measured temperatures."""
+        if "mixture conductivity" not in points.kinds:
+            return
+        T = points.temperature[points.mask("mixture conductivity")]
+        for gas, which in ((self.first, "first"), (self.second, "second")):
+            label = gas.gas.name or gas.gas.formula or which
+            source = f" ({gas.path})" if gas.path else ""
+            missing = gas.conductivity_missing
+            if missing:
+                raise FitError(f"mixture conductivity needs the whole conductivity of both gases, but the parameter "
+                               f"file of {label}{source} has {missing}: refit {label} with a gas file giving its "
+                               "heat capacity (fitkin fit ... --gas FILE), or leave the conductivity column out of "
+                               "the mixture table")
+            if not is_monatomic(gas.gas):
+                try:
+                    gas.conductivity(T)
+                except FitkinError as exc:
+                    raise FitError(f"mixture conductivity at {T.min():g}–{T.max():g} K: the conductivity of "
+                                   f"{label}{source} cannot be evaluated there: {exc}") from None
 
     def bounds(self, points: MixturePoints) -> dict:
         """Search bounds of θ: σ12 within 1–30 Å, ε12/k such that every temperature's T* stays

@@ -93,7 +93,7 @@ def interaction_record(fit: InteractionFit, *, gas_files, command: str | None = 
         "rules_compared": fit.rules_compared,
         "statistics": {**fit.statistics(),
                        "fitted_quantity": {"mixture viscosity": "μ_mix [Pa s]",
-                                           "mixture conductivity": "k_mix (translational) [W/(m K)]",
+                                           "mixture conductivity": "k_mix [W/(m K)] (GasPair.conductivity)",
                                            "binary diffusion": "D12·p [Pa m²/s] (pressure independent)"}},
         "posterior": posterior,
         "data": _data_entries(fit),

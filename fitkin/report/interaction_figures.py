@@ -26,7 +26,7 @@ def _curve(pair, kind, T, x1, p=101325.0):
         if kind == "mixture viscosity":
             return pair.viscosity(T, x1)
         if kind == "mixture conductivity":
-            return pair.translational_conductivity(T, x1)
+            return pair.conductivity(T, x1)   # as fitted (internal energy included)
         return pair.binary_diffusion(T, p, x1) * p
     except OutOfRangeError:
         return np.full(np.broadcast(T, x1).shape, np.nan)
