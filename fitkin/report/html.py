@@ -31,7 +31,8 @@ from .sections import (OPTIONAL_SECTIONS, LABELS, UNIT_TEXT, ReportContext, Sect
                        figure_html, parameter_status, parameters_section, potential_text, probability_text,
                        statistics_section)
 
-__all__ = ["write_report", "report_from_parameter_file", "build_report", "render_page", "REPORT_NAME", "FIGURE_FOLDER", "CAUTION"]
+__all__ = ["write_report", "report_from_parameter_file", "build_report", "render_page", "write_figures",
+           "check_figures", "REPORT_NAME", "FIGURE_FOLDER", "CAUTION"]
 
 REPORT_NAME = "report.html"
 FIGURE_FOLDER = "figures"
@@ -299,7 +300,9 @@ def render_page(ctx: ReportContext, sections: list[Section]) -> str:
         "</main></body></html>\n")
 
 
-def _check_figures(folder: Path, names, force: bool) -> None:
+def check_figures(folder: Path, names, force: bool) -> None:
+    """Raise :class:`OutputExistsError` if ``folder/NAME.png|svg`` of any of ``names`` exists
+    (unless ``force``)."""
     clash = [folder / f"{n}.{ext}" for n in names for ext in ("png", "svg") if (folder / f"{n}.{ext}").exists()]
     if clash and not force:
         raise OutputExistsError(f"{clash[0]} already exists; choose another output folder or pass --force to "
@@ -325,13 +328,19 @@ def write_report(record: dict, out_dir, *, force: bool = False, record_path=None
     out = Path(out_dir)
     target = check_can_write(out / REPORT_NAME, force)
     folder = out / FIGURE_FOLDER
-    _check_figures(folder, STANDARD_FIGURES, force)  # fail before the work where possible
+    check_figures(folder, STANDARD_FIGURES, force)  # fail before the work where possible
     html, ctx = build_report(record, record_path=record_path, pressure=pressure, extra_sections=extra_sections)
-    _check_figures(folder, ctx.figures, force)
+    write_figures(ctx, folder, force)
+    return write_text_atomic(target, html, force=force)
+
+
+def write_figures(ctx: ReportContext, folder: Path, force: bool) -> None:
+    """Save every figure of ``ctx`` as ``folder/NAME.png`` and ``.svg`` (atomically; an existing
+    file is an :class:`OutputExistsError` unless ``force``)."""
+    check_figures(folder, ctx.figures, force)
     for name, (fig, _) in ctx.figures.items():
         write_bytes_atomic(folder / f"{name}.png", ctx.png_of(name), force=force)
         write_bytes_atomic(folder / f"{name}.svg", fg.figure_bytes(fig, "svg"), force=force)
-    return write_text_atomic(target, html, force=force)
 
 
 def report_from_parameter_file(parameters, out_dir=None, *, force: bool = False,
