@@ -173,8 +173,9 @@ class SmoothCurve:
         return 2.0 * np.pi * N_A * (mayer * r ** 2) @ w
 
 
-def _virial_nodes(scale: float):
-    """Nodes and weights over (0, ∞) for B(T): fine panels across wall and well, r = R/u tail."""
+def _unit_virial_nodes():
+    """Nodes and weights over (0, ∞) in units of σ for B(T): fine panels across wall and well,
+    an r = R/u tail beyond 4σ."""
     x, w = leggauss(8)
     edges = np.concatenate([[1e-3, 0.5], np.arange(0.55, 1.6001, 0.05), np.arange(1.7, 4.0001, 0.25)])
     nodes, weights = [], []
@@ -185,7 +186,16 @@ def _virial_nodes(scale: float):
     outer = edges[-1]
     nodes.append(outer / u)
     weights.append(0.5 * leggauss(16)[1] * outer / u ** 2)
-    return np.concatenate(nodes) * scale, np.concatenate(weights) * scale
+    return np.concatenate(nodes), np.concatenate(weights)
+
+
+#: The unit nodes, computed once (each B(T) of a curve fit used to rebuild them, half the fit's time).
+_UNIT_NODES, _UNIT_WEIGHTS = _unit_virial_nodes()
+
+
+def _virial_nodes(scale: float):
+    """Nodes and weights (m) over (0, ∞) for B(T) of a curve of length scale ``scale`` (m)."""
+    return _UNIT_NODES * scale, _UNIT_WEIGHTS * scale
 
 
 def curve_from_potential(potential: Potential, sigma: float, epsilon_over_k: float) -> CurveParameters:

@@ -15,11 +15,16 @@ from fitkin.formatting import count_of
 from fitkin.potentials.base import Potential
 from fitkin.units import parse_unit, to_si, ureg
 
-__all__ = ["Tabulated", "MIN_TABLE_POINTS", "table_sha256"]
+__all__ = ["Tabulated", "MIN_TABLE_POINTS", "FORM_VERSION", "table_sha256"]
 
 #: Fewest points a table may have: the spline needs a few points on the repulsive wall,
 #: around the well and on the attractive tail.
 MIN_TABLE_POINTS = 10
+#: Version of the form a table is turned into (spline of r⁶U, A r^-p wall, −C6/r⁶ − C8/r⁸ tail);
+#: part of :meth:`Tabulated.cache_key`, so cached collision integrals of a table are not reused
+#: after a change of that form (the key's hash covers only the reduced numbers).  Bump it with
+#: any change to how the table is interpolated or extended.
+FORM_VERSION = 1
 
 
 def _energy_over_k(values: np.ndarray, unit_text: str, *, file=None, column=None) -> np.ndarray:
@@ -174,7 +179,9 @@ class Tabulated(Potential):
         return {"points": float(self._x.size)}
 
     def cache_key(self) -> str:
-        return f"tabulated-{self._digest}"
+        """``tabulated-form<FORM_VERSION>-<first 16 hex digits of the SHA-256 of the reduced table>``:
+        Ω* depends on the reduced shape only, so tables differing only in σ and ε share it."""
+        return f"tabulated-form{FORM_VERSION}-{self._digest}"
 
     def _identity(self) -> tuple:
         return ("tabulated", self._digest)
