@@ -48,8 +48,8 @@ def test_mixture_columns_get_bands_from_the_pure_gases(files, capsys):
     mu = _column(table, "mixture viscosity x(Ar) = 0.5 [")
     lo, hi = _column(table, "mixture viscosity x(Ar) = 0.5 lower 0.95"), _column(table, "mixture viscosity x(Ar) = 0.5 upper 0.95")
     assert np.all(lo < mu) and np.all(mu < hi)
-    d_lo = _column(table, "binary diffusion with He at 101325 Pa lower 0.95")
-    d_hi = _column(table, "binary diffusion with He at 101325 Pa upper 0.95")
+    d_lo = _column(table, "binary diffusion with He x(Ar) = 0.5 at 101325 Pa lower 0.95")
+    d_hi = _column(table, "binary diffusion with He x(Ar) = 0.5 at 101325 Pa upper 0.95")
     assert np.all(d_lo < d_hi)
     assert "mixture bands from Ar: covariance; He: covariance; unlike pair: Lorentz" in comment
     # the same numbers as the library's PairPredictor (4 significant digits of the table)
@@ -68,8 +68,8 @@ def test_given_unlike_parameters_stay_fixed_in_the_band(files, capsys):
     widths = []
     for out in (rule_out, given_out):
         table, _ = _table(out)
-        widths.append(_column(table, "binary diffusion with He at 101325 Pa upper")[0]
-                      - _column(table, "binary diffusion with He at 101325 Pa lower")[0])
+        widths.append(_column(table, "binary diffusion with He x(Ar) = 0.5 at 101325 Pa upper")[0]
+                      - _column(table, "binary diffusion with He x(Ar) = 0.5 at 101325 Pa lower")[0])
     # D12 depends on the pure gases only through Kihara's small correction: with σ12, ε12 given
     # its band nearly vanishes, while through the combining rule it follows σ and ε/k of both gases
     assert widths[1] < 0.1 * widths[0]
@@ -88,8 +88,8 @@ def test_interaction_file_gives_the_fitted_pair_and_its_band(files, capsys):
     np.testing.assert_allclose(cols["mixture viscosity x(Ar) = 0.5 [uPa s]"], fitted.viscosity(T, 0.5) * 1e6,
                                rtol=1e-12)
     _, lo, hi = fitted.binary_diffusion(T, band=0.95)
-    np.testing.assert_allclose(cols["binary diffusion with He at 101325 Pa lower 0.95 [cm^2/s]"], lo * 1e4, rtol=1e-12)
-    np.testing.assert_allclose(cols["binary diffusion with He at 101325 Pa upper 0.95 [cm^2/s]"], hi * 1e4, rtol=1e-12)
+    np.testing.assert_allclose(cols["binary diffusion with He x(Ar) = 0.5 at 101325 Pa lower 0.95 [cm^2/s]"], lo * 1e4, rtol=1e-12)
+    np.testing.assert_allclose(cols["binary diffusion with He x(Ar) = 0.5 at 101325 Pa upper 0.95 [cm^2/s]"], hi * 1e4, rtol=1e-12)
     assert doc["mixture"]["interaction_file"] == str(mix)
     assert doc["mixture"]["sigma12_angstrom"] == pytest.approx(2.95)
     assert doc["band"]["mixture_draws_from"].startswith("Ar: covariance; He: covariance; unlike pair: covariance")
@@ -137,3 +137,22 @@ def test_damaged_interaction_file_exits_2(files, capsys):
     mix.write_text(json.dumps({"format": "fitkin-interaction", "format_version": 7}))
     code, _, err = run(capsys, "predict", ar, "-T", "300", "--with", he, "--interaction", mix)
     assert code == 2 and str(mix) in err and "format version 7, newer" in err
+
+
+def test_binary_diffusion_at_each_mole_fraction_or_equimolar(files, capsys):
+    # beyond the first approximation D12 depends on composition (Kihara's second approximation,
+    # fitkin.mixture.GasPair); the table gives it at each --x1, and says x = 0.5 when none is given
+    ar, he, _ = files
+    code, out, err = run(capsys, "predict", ar, "-T", "300", "--with", he, "--x1", "0.1,0.9", "--format", "json")
+    assert code == 0, err
+    cols = json.loads(out)["columns"]
+    pair = GasPair(fitkin.load_parameters(ar), fitkin.load_parameters(he))
+    for x in (0.1, 0.9):
+        value = cols[f"binary diffusion with He x(Ar) = {x:g} at 101325 Pa [cm^2/s]"][0]
+        assert value == pytest.approx(float(pair.binary_diffusion(300.0, 101325.0, x)) * 1e4, rel=1e-12)
+    d_01 = cols["binary diffusion with He x(Ar) = 0.1 at 101325 Pa [cm^2/s]"][0]
+    d_09 = cols["binary diffusion with He x(Ar) = 0.9 at 101325 Pa [cm^2/s]"][0]
+    assert d_01 != pytest.approx(d_09, rel=1e-4)  # the composition dependence is visible at 4 digits
+    code, out, err = run(capsys, "predict", ar, "-T", "300", "--with", he, "--format", "json")
+    assert code == 0, err
+    assert "binary diffusion with He x(Ar) = 0.5 at 101325 Pa [cm^2/s]" in json.loads(out)["columns"]

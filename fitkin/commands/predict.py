@@ -60,11 +60,17 @@ def prediction_table(gas, T, pressure, band=None, pair=None, x1=None):
     if pair is not None:
         if isinstance(pair, GasPair):
             pair = PairPredictor(pair)
-        limits = pair.binary_diffusion(T, pressure, band=band) if band is not None else None
-        _with_band(cols, f"binary diffusion with {pair.names[1]} at {pressure:g} Pa [cm^2/s]",
-                   pair.binary_diffusion(T, pressure) * 1e4, band, limits and tuple(v * 1e4 for v in limits))
-        if x1:  # one (T, x1) grid: a band's draws are evaluated once for every composition
-            grid = np.asarray(T, dtype=float)[:, None], np.asarray(x1, dtype=float)[None, :]
+        # one (T, x1) grid: a band's draws are evaluated once for every composition. Beyond the first
+        # approximation D12 depends (weakly) on composition: at each --x1, else equimolar, as the header says
+        fractions = list(x1) if x1 else [0.5]
+        grid = np.asarray(T, dtype=float)[:, None], np.asarray(fractions, dtype=float)[None, :]
+        point = pair.binary_diffusion(grid[0], pressure, grid[1]) * 1e4
+        limits = (tuple(v * 1e4 for v in pair.binary_diffusion(grid[0], pressure, grid[1], band=band))
+                  if band is not None else None)
+        for j, x in enumerate(fractions):
+            _with_band(cols, f"binary diffusion with {pair.names[1]} x({gas.gas.name}) = {x:g} at {pressure:g} Pa "
+                             "[cm^2/s]", point[:, j], band, limits and tuple(v[:, j] for v in limits))
+        if x1:
             point = pair.viscosity(*grid) * 1e6
             limits = tuple(v * 1e6 for v in pair.viscosity(*grid, band=band)) if band is not None else None
             for j, x in enumerate(x1):

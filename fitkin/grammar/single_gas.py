@@ -100,7 +100,7 @@ def add_predict(sub) -> None:
     mix = p.add_argument_group("binary mixture with a second fitted gas")
     mix.add_argument("--with", dest="with_gas", metavar="OTHER.json",
                      help="parameter file of a second gas: adds its binary diffusion coefficient with this gas")
-    mix.add_argument("--x1", metavar="LIST", help="mole fractions of this gas for mixture viscosities, e.g. 0.25,0.5")
+    mix.add_argument("--x1", metavar="LIST", help="mole fractions of this gas for mixture viscosities and D12 (D12 alone: 0.5), e.g. 0.25,0.5")
     mix.add_argument("--sigma12", help="unlike-pair σ12 (default Lorentz: mean), e.g. '3.6 angstrom'")
     mix.add_argument("--epsilon12", help="unlike-pair ε12/k (default Berthelot: geometric mean), e.g. '150 K'")
     mix.add_argument("--k12", type=float, help="ε12 = (1 − k12)√(ε1 ε2) (default 0)")
