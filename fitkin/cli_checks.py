@@ -114,6 +114,14 @@ def _check_mix(args) -> None:
             raise UsageError(f"--{flag.replace('_', '-')} goes with --sample")
     if args.prior and not args.sample:
         raise UsageError("--prior goes with --sample (least squares uses no prior)")
+    if (args.joint or args.pure_table) and args.fix_pure:
+        raise UsageError("--fix-pure holds the pure gases at their saved fits, while --pure-table / --joint fit them "
+                         "together with the unlike pair; choose one")
+    for entry in args.pure_table:
+        gas, sep, file = entry.partition("=")
+        if not sep or not gas.strip() or not file.strip():
+            raise UsageError(f"--pure-table expects GAS=FILE (the gas's name or formula, then its table), e.g. "
+                             f"--pure-table Ar=argon_visc.csv; got {entry!r}")
 
 
 def _check_fit(args) -> None:

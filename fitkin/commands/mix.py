@@ -33,6 +33,15 @@ def _outputs(out_dir: Path, args) -> dict:
     return planned
 
 
+def _pure_tables(entries) -> dict:
+    """{gas: [files]} of the --pure-table GAS=FILE entries (checked in fitkin.cli_checks)."""
+    tables: dict = {}
+    for entry in entries:
+        gas, _, file = entry.partition("=")
+        tables.setdefault(gas.strip(), []).append(file.strip())
+    return tables
+
+
 def run_mix(args, out) -> int:
     out_dir = check_output_place(args.out, folder=True, what="--out")
     planned = _outputs(Path(out_dir), args)
@@ -46,7 +55,7 @@ def run_mix(args, out) -> int:
                           progress=sys.stderr.isatty(),
                           pair_options={"approximation": args.approximation,
                                         **({"shape": args.pair_shape} if args.pair_shape else {})},
-                          read_options=read_options)
+                          read_options=read_options, pure_tables=_pure_tables(args.pure_table), joint=args.joint)
     for table in fit.points.tables:
         for w in table.warnings:
             print(f"warning: {w}", file=out)

@@ -46,6 +46,7 @@ EPILOG_MIX = """examples:
   fitkin mix fit-argon/parameters.json fit-helium/parameters.json ar-he_viscosity.csv --out ar-he
   fitkin mix ar.json he.json mix.csv d12.csv --pressure "1 atm" --rule halgren --fit-deviations --out ar-he-dev
   fitkin mix ar.json he.json mix.csv --sample --seed 3 --prior sigma12=gaussian:3.0,0.1 --out ar-he-post
+  fitkin mix ar.json he.json mix.csv --pure-table Ar=argon_visc.csv --pure-table He=helium_visc.csv --out ar-he-joint
 """
 EPILOG_DEMO = """examples:
   fitkin demo                       (writes ./fitkin-demo/)

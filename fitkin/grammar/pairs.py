@@ -31,6 +31,14 @@ def add_mix(sub) -> None:
     p.add_argument("--approximation", choices=("kihara", "first", "sonine"), default="kihara",
                    help="Chapman–Enskog approximation of D12 and μ_mix: kihara (second approximation, default), "
                         "first, or sonine (exact mixture Sonine order)")
+    joint = p.add_argument_group("joint mode (the pure gases' σ, ε/k fitted together with the unlike pair)")
+    joint.add_argument("--pure-table", action="append", default=[], metavar="GAS=FILE",
+                       help="a measured table of one pure gas (GAS its name or formula in the pair, e.g. "
+                            "Ar=argon_visc.csv; repeat for more): fits both pure gases' σ, ε/k together with the "
+                            "unlike pair to all data, their shape and other settings held as in their files")
+    joint.add_argument("--joint", action="store_true",
+                       help="the joint mode also without --pure-table: the pure limits x = 0 and 1 of the "
+                            "mixture tables then determine the pure gases")
     samp = p.add_argument_group("posterior sampling (the pure gases' parameters marginalised)")
     samp.add_argument("--sample", action="store_true", help="sample the posterior with emcee after the fit")
     samp.add_argument("--fix-pure", action="store_true",

@@ -7,12 +7,12 @@ from ..errors import FitError
 from ..fitted import FittedGas, load_parameters
 from ..io.mixture_tables import read_mixture_tables
 from ..measurements import MixtureTable
-from .leastsq import fit_least_squares
+from .joint import read_pure_tables
+from .joint_fit import fit_joint, search_and_sample
 from .model import InteractionModel
 from .points import MixturePoints
 from .result import InteractionFit
 from .rules import rules_compared
-from .sampling import sample_interaction
 
 __all__ = ["fit_interaction", "as_fitted_gas", "pair_names"]
 
@@ -37,7 +37,8 @@ def fit_interaction(first, second, tables, *, rule: str = "lorentz-berthelot", f
                     pressure: float | None = None, sample: bool = False, priors: dict | None = None,
                     walkers: int | None = None, max_steps: int = 20000, seed: int | None = None,
                     marginalise: bool = True, progress: bool = False, pair_options: dict | None = None,
-                    read_options: dict | None = None) -> InteractionFit:
+                    read_options: dict | None = None, pure_tables: dict | None = None,
+                    joint: bool = False) -> InteractionFit:
     """Fit the unlike pair of two fitted gases to binary-mixture data.
 
     Parameters
@@ -54,7 +55,14 @@ def fit_interaction(first, second, tables, *, rule: str = "lorentz-berthelot", f
     priors : {name: Prior or "KIND:ARGS"} for sigma12 (Å), epsilon12_over_k (K), k12, l12.
     walkers, max_steps, seed, progress : of the sampler (the seed is drawn and recorded when None).
     pair_options : keywords of :class:`~fitkin.mixture.GasPair` (shape, order, ...).
-    read_options : keywords of :func:`~fitkin.io.mixture_tables.read_mixture_table` (sheet, units, ...).
+    read_options : keywords of :func:`~fitkin.io.mixture_tables.read_mixture_table` (sheet, units, ...);
+        the pure tables are read with the same.
+    pure_tables : {gas: [table files or MeasuredTable s]} of each pure gas (named ``first``,
+        ``second``, or by its name or formula): the joint mode, in which σ, ε/k of both pure
+        gases are fitted together with the unlike pair to all data (:mod:`fitkin.interaction.joint`;
+        the mixture points at x = 0 and 1 inform them too), with ``sample`` constrained by their
+        data through the likelihood, not by priors from their saved fits.
+    joint : the joint mode without pure tables (the pure limits of the mixture tables alone).
 
     Returns
     -------
@@ -69,15 +77,16 @@ def fit_interaction(first, second, tables, *, rule: str = "lorentz-berthelot", f
     model = InteractionModel(g1, g2, rule=rule, parametrisation="deviations" if fit_deviations else "direct",
                              pair_options=dict(pair_options or {}))
     points = MixturePoints.from_tables(loaded)
-    least_squares = fit_least_squares(model, points)
-    warnings = []
-    if not least_squares.success:
-        warnings.append(f"the least-squares search did not report success: {least_squares.message}")
-    posterior = None
-    if sample:
-        posterior = sample_interaction(model, points, least_squares, priors=priors, walkers=walkers,
-                                       max_steps=max_steps, seed=seed, marginalise=marginalise, progress=progress)
-        warnings += list(posterior.warnings)
+    if joint or pure_tables:
+        if sample and not marginalise:
+            raise FitError("the joint mode fits the pure gases; holding them fixed (marginalise=False, --fix-pure) "
+                           "contradicts it")
+        pure = read_pure_tables(pure_tables or {}, pair_names(g1, g2), read_options, pressure)
+        return fit_joint(model, points, pure, sample=sample, priors=priors, walkers=walkers, max_steps=max_steps,
+                         seed=seed, progress=progress)
+    least_squares, posterior, warnings = search_and_sample(
+        model, points, sample=sample, priors=priors, walkers=walkers, max_steps=max_steps, seed=seed,
+        marginalise=marginalise, progress=progress)
     return InteractionFit(model=model, points=points, least_squares=least_squares,
                           rules_compared=rules_compared(model, points), posterior=posterior,
                           warnings=tuple(warnings))

@@ -48,16 +48,17 @@ def fit_least_squares(model: InteractionModel, points: MixturePoints) -> LeastSq
     model.check_points(points)
     names = model.names
     if len(points) <= len(names):
-        raise FitError(f"{len(points)} mixture points cannot determine {len(names)} parameters; give more points")
+        raise FitError(f"{len(points)} points cannot determine {len(names)} parameters; give more points")
     bounds = model.bounds(points)
     start = model.start()
+    key = {n: f"p{i}" for i, n in enumerate(names)}  # lmfit names are identifiers; "first.sigma" is not
     params = lmfit.Parameters()
     for n in names:
         lo, hi = bounds[n]
-        params.add(n, value=min(max(start[n], lo), hi), min=lo, max=hi)
+        params.add(key[n], value=min(max(start[n], lo), hi), min=lo, max=hi)
 
     def residual(p):
-        theta = {n: p[n].value for n in names}
+        theta = {n: p[key[n]].value for n in names}
         try:
             return (model.predict(theta, points) - points.value) / points.sigma_y
         except OutOfRangeError:
@@ -68,9 +69,10 @@ def fit_least_squares(model: InteractionModel, points: MixturePoints) -> LeastSq
                              x_scale="jac")
     except (ValueError, FloatingPointError) as exc:
         raise FitError(f"the least-squares fit of the unlike pair failed numerically: {exc}") from exc
-    values = {n: float(out.params[n].value) for n in names}
-    stderr = {n: float(out.params[n].stderr) if out.params[n].stderr is not None else float("nan") for n in names}
-    cov = np.asarray(out.covar, dtype=float) if out.covar is not None else np.full((2, 2), np.nan)
+    values = {n: float(out.params[key[n]].value) for n in names}
+    stderr = {n: float(out.params[key[n]].stderr) if out.params[key[n]].stderr is not None else float("nan")
+              for n in names}
+    cov = np.asarray(out.covar, dtype=float) if out.covar is not None else np.full((len(names), len(names)), np.nan)
     prediction = model.predict(values, points)
     return LeastSquaresResult(names=names, values=values, stderr=stderr, covariance=cov, prediction=prediction,
                               chi2=chi_square(prediction, points), dof=len(points) - len(names),

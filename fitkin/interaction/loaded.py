@@ -8,7 +8,9 @@ The interaction file embeds both pure gases' parameter records, so nothing else 
 The methods (viscosity, conductivity, binary_diffusion; broadcasting, ``band=``) are those of
 :class:`fitkin.interaction.predictor.PairPredictor`; the draws of a band are the fit's joint
 posterior samples when it was sampled, else its covariance and each pure gas's own
-uncertainty, independently (:attr:`FittedInteraction.band_source`, :mod:`fitkin.interaction.bands`).
+uncertainty, independently — or, for a joint fit (``fitkin mix --pure-table``), Gaussian draws
+of every parameter together from its joint covariance (:attr:`FittedInteraction.band_source`,
+:mod:`fitkin.interaction.bands`).
 """
 from __future__ import annotations
 
@@ -134,7 +136,12 @@ class FittedInteraction(PairPredictor):
     # -- draws ---------------------------------------------------------------------------
     def _make_draws(self) -> PairDraws:
         if self._samples is not None:
-            return self._joint_draws(self._samples)
+            return self._joint_draws(self._samples, "joint posterior samples of the interaction fit")
+        joint = self.record.get("joint")
+        if joint:  # the joint mode: pure gases and unlike pair drawn together from their covariance
+            rows = covariance_draws(joint["parameters"], joint["covariance"], BAND_DRAWS, BAND_SEED + 2)
+            return self._joint_draws({k: np.array([r[k] for r in rows]) for k in rows[0]},
+                                     "covariance of the joint fit (pure gases and unlike pair together)")
         cov = self.record["covariance"]
         unlike = self._fitted_only(covariance_draws(self.record["parameters"], cov, BAND_DRAWS, BAND_SEED + 2))
         return PairDraws.independent(self._central, unlike, "unlike pair: covariance of the interaction fit "
@@ -144,7 +151,7 @@ class FittedInteraction(PairPredictor):
         """The draws' fitted parameters (σ12, ε12/k or k12, l12), the others following from them."""
         return [{k: row[k] for k in self.fitted_names} for row in unlike]
 
-    def _joint_draws(self, samples: dict) -> PairDraws:
+    def _joint_draws(self, samples: dict, what: str) -> PairDraws:
         n = len(next(iter(samples.values())))
         pick = np.arange(n)
         if n > BAND_DRAWS:
@@ -161,7 +168,7 @@ class FittedInteraction(PairPredictor):
                 draws, text = gas_draws(gas, len(rows), BAND_SEED + i)
                 pure.append(draws)
                 sources.append(text + " (independent; not in the interaction samples)")
-        text = "joint posterior samples of the interaction fit (" + ", ".join(samples) + ")"
+        text = f"{what} (" + ", ".join(samples) + ")"
         return PairDraws(pure[0], pure[1], self._fitted_only(rows), "; ".join([text, *sources]))
 
     def __repr__(self) -> str:

@@ -13,6 +13,10 @@ The entries a reader needs (docs/file-formats.md describes the whole file):
 * ``parameters.sigma12`` (Å) and ``parameters.epsilon12_over_k`` (K), each with ``value``,
   ``stderr`` and ``unit`` (also ``k12``, ``l12`` with the deviations);
 * ``covariance``: ``names`` (the entries of ``parameters``) and ``matrix``;
+* ``mode`` (``sequential``, the default, or ``joint``) and ``joint`` (null, or for a joint fit
+  ``parameters`` and ``covariance`` over the unlike parameters and ``first.sigma``,
+  ``first.epsilon_over_k``, ``second.sigma``, ``second.epsilon_over_k``: bands without samples
+  draw from it; the embedded ``gases`` are then the jointly refitted ones);
 * ``posterior`` (a sampled fit, else null): ``samples_file`` (beside the interaction file,
   normally ``interaction_samples.npz``; an optional ``samples_sha256`` is checked). The
   samples file holds one array per parameter: the unlike parameters under their own names
@@ -47,6 +51,8 @@ GAS_ROLES = ("first", "second")
 FITTED = {"direct": ("sigma12", "epsilon12_over_k"), "deviations": ("k12", "l12")}
 #: Unlike-pair parameters a file may report, with the unit of their value in the file.
 UNLIKE_PARAMETERS = {"sigma12": "angstrom", "epsilon12_over_k": "K", "k12": "", "l12": ""}
+#: Parameters the covariance of a joint fit may name: the unlike ones and both pure gases' σ, ε/k.
+JOINT_PARAMETERS = (*UNLIKE_PARAMETERS, *(f"{role}.{n}" for role in GAS_ROLES for n in ("sigma", "epsilon_over_k")))
 
 
 def _number(value) -> bool:
@@ -105,6 +111,9 @@ def check_interaction_record(record, source) -> None:
             problems.append(f"parameters.{name}.value: expected a positive number "
                             f"({'Å' if name == 'sigma12' else 'K'}), found {entry!r:.60}")
     problems += _covariance_problems(record.get("covariance"), params)
+    problems += _joint_problems(record.get("joint"))
+    if record.get("mode", "sequential") not in ("sequential", "joint"):
+        problems.append(f"mode: expected sequential or joint, found {record['mode']!r:.40}")
     for key in ("pair_options", "unlike_potential", "posterior", "gas_files"):
         if record.get(key) is not None and not isinstance(record[key], dict):
             problems.append(f"{key}: expected a group of entries")
@@ -116,26 +125,36 @@ def check_interaction_record(record, source) -> None:
                                  "hand; write it again with fitkin mix)")
 
 
-def _covariance_problems(cov, params: dict) -> list[str]:
+def _covariance_problems(cov, params: dict, where: str = "", allowed=tuple(UNLIKE_PARAMETERS)) -> list[str]:
+    """What is wrong with the covariance ``cov`` of ``params`` (entries ``where`` + covariance, parameters)."""
     if not isinstance(cov, dict):
-        return ["covariance: required entry is missing (names and matrix of the fitted unlike parameters)"]
+        return [f"{where}covariance: required entry is missing (names and matrix of the fitted parameters)"]
     names, matrix = cov.get("names"), cov.get("matrix")
-    if not isinstance(names, list) or not names or not all(n in UNLIKE_PARAMETERS for n in names):
-        return [f"covariance.names: expected fitted unlike parameters among {', '.join(UNLIKE_PARAMETERS)}, "
+    if not isinstance(names, list) or not names or not all(n in allowed for n in names):
+        return [f"{where}covariance.names: expected fitted parameters among {', '.join(allowed)}, "
                 f"found {names!r:.80}"]
     missing = [n for n in names if not isinstance(params.get(n), dict) or not _number(params[n].get("value"))]
     if missing:
-        return [f"parameters.{n}.value: the covariance names it, but it has no value" for n in missing]
+        return [f"{where}parameters.{n}.value: the covariance names it, but it has no value" for n in missing]
     try:
         m = np.array(matrix, dtype=float)
     except (TypeError, ValueError):
         m = np.array([])
     if m.shape != (len(names), len(names)) or not np.all(np.isfinite(m)):
-        return [f"covariance.matrix: expected a {len(names)}×{len(names)} matrix of numbers"]
+        return [f"{where}covariance.matrix: expected a {len(names)}×{len(names)} matrix of numbers"]
     scale = max(float(np.abs(m).max()), 1e-300)
     if not np.allclose(m, m.T, rtol=1e-8, atol=1e-12 * scale) or np.any(np.linalg.eigvalsh(m) < -1e-9 * scale):
-        return ["covariance.matrix: not a covariance (not symmetric positive semi-definite)"]
+        return [f"{where}covariance.matrix: not a covariance (not symmetric positive semi-definite)"]
     return []
+
+
+def _joint_problems(joint) -> list[str]:
+    """What is wrong with the ``joint`` entry of a joint-mode fit (None: not a joint fit)."""
+    if joint is None:
+        return []
+    if not isinstance(joint, dict) or not isinstance(joint.get("parameters"), dict):
+        return ["joint: expected a group with parameters and covariance (of a joint fit), or null"]
+    return _covariance_problems(joint.get("covariance"), joint["parameters"], "joint.", JOINT_PARAMETERS)
 
 
 def interaction_samples(record: dict, path) -> dict[str, np.ndarray] | None:

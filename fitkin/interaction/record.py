@@ -14,6 +14,8 @@ import numpy as np
 
 from .. import __version__
 from ..report.html import CAUTION
+from .joint_result import JOINT_CONSTRAINT, PURE_UNITS
+from .model import UNITS as UNLIKE_UNITS
 from .result import InteractionFit
 
 __all__ = ["interaction_record", "FORMAT_NAME", "FORMAT_VERSION", "SAMPLES_NAME", "samples_arrays"]
@@ -39,6 +41,28 @@ def _data_entries(fit: InteractionFit) -> list[dict]:
                     "temperature_range_K": _range(fit.points.temperature[m]), "x1_range": _range(fit.points.x1[m]),
                     "composition_column": t.composition})
     return out
+
+
+def _joint_entry(fit: InteractionFit) -> dict | None:
+    """The ``joint`` entry: every parameter with its standard error, their covariance (unlike and
+    pure together), the pure gases saved and refitted, their data, statistics and residuals."""
+    joint = fit.joint
+    if joint is None:
+        return None
+    values, stderr = joint.values, joint.stderr
+    units = [UNLIKE_UNITS.get(n) or PURE_UNITS[n.rpartition(".")[2]] for n in joint.names]
+    data = {role: None if joint.points.pure.get(role) is None else
+            [{"file": f, "points": int(np.sum(joint.points.pure[role].file == f))}
+             for f in dict.fromkeys(map(str, joint.points.pure[role].file))] for role in ("first", "second")}
+    residuals = {role: None if res is None else {k: np.asarray(v).tolist() for k, v in res.items()}
+                 for role, res in joint.pure_residuals().items()}
+    return {"pure_constraint": JOINT_CONSTRAINT,
+            "held_fixed": "each pure gas's potential shape and shape parameters (Mie n, exp-6 alpha), internal-energy "
+                          "model and its parameters, Sonine order and collision integrals, as in its parameter file",
+            "parameters": {n: {"value": values[n], "stderr": stderr[n], "unit": u} for n, u in zip(joint.names, units)},
+            "covariance": {"names": list(joint.names), "units": units, "matrix": joint.covariance.tolist()},
+            "pure_parameters": joint.pure_parameters(), "pure_data": data, "statistics": joint.statistics(),
+            "pure_residuals": residuals}
 
 
 def samples_arrays(fit: InteractionFit) -> dict[str, np.ndarray]:
@@ -69,10 +93,11 @@ def interaction_record(fit: InteractionFit, *, gas_files, command: str | None = 
         posterior = {"samples_file": SAMPLES_NAME, "n_samples": int(len(post.samples["sigma12"])),
                      "walkers": post.diagnostics.walkers, "steps": post.diagnostics.steps,
                      "burn": post.diagnostics.burn_in, "seed": post.seed, "pure_marginalised": post.marginalised,
-                     "pure_priors": post.pure_priors, "priors": post.priors,
+                     "pure_priors": post.pure_priors, "pure_constraint": post.pure_constraint, "priors": post.priors,
                      "diagnostics": post.diagnostics.to_record()}
     record = {
         "format": FORMAT_NAME, "format_version": FORMAT_VERSION,
+        "mode": fit.mode,
         "pair": {"first": pair.names[0], "second": pair.names[1], "x_refers_to": pair.names[0]},
         "gases": {"first": model.first.record, "second": model.second.record},
         "gas_files": {"first": dict(gas_files[0]), "second": dict(gas_files[1])},
@@ -89,13 +114,16 @@ def interaction_record(fit: InteractionFit, *, gas_files, command: str | None = 
         "least_squares": {"values": ls.values, "stderr": ls.stderr, "names": list(ls.names),
                           "covariance": ls.covariance.tolist(), "chi2": ls.chi2, "dof": ls.dof,
                           "start": ls.start, "bounds": ls.bounds, "success": ls.success, "message": ls.message,
-                          "conditional_on_pure_fits": True},
+                          "conditional_on_pure_fits": fit.joint is None,
+                          **({"note": "the unlike block of the joint fit; χ² and dof of all points (joint)"}
+                             if fit.joint is not None else {})},
         "rules_compared": fit.rules_compared,
         "statistics": {**fit.statistics(),
                        "fitted_quantity": {"mixture viscosity": "μ_mix [Pa s]",
                                            "mixture conductivity": "k_mix [W/(m K)] (GasPair.conductivity)",
                                            "binary diffusion": "D12·p [Pa m²/s] (pressure independent)"}},
         "posterior": posterior,
+        "joint": _joint_entry(fit),
         "data": _data_entries(fit),
         "residuals": {k: (v.tolist() if isinstance(v, np.ndarray) else v) for k, v in fit.residuals().items()},
         "warnings": list(fit.warnings),

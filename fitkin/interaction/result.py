@@ -27,9 +27,14 @@ class InteractionFit:
     (conditional on the pure gases' fits); with a posterior they are its medians, standard
     deviations and sample covariance, the pure gases' parameters marginalised.
 
+    In the joint mode (``joint`` a :class:`~fitkin.interaction.joint_result.JointFit`) the
+    pure gases were fitted together with the unlike pair: ``model`` holds the refitted gases,
+    ``least_squares`` the unlike block of the joint fit (its standard errors include the pure
+    gases' uncertainty), and ``joint`` every parameter.
+
     Attributes: ``model``, ``points``, ``least_squares``, ``rules_compared`` (each combining
     rule's σ12, ε12, χ², rms % on the same data), ``posterior``
-    (:class:`~fitkin.interaction.sampling.InteractionPosterior` or None), ``warnings``.
+    (:class:`~fitkin.interaction.sampling.InteractionPosterior` or None), ``warnings``, ``joint``.
     """
 
     model: InteractionModel
@@ -38,6 +43,12 @@ class InteractionFit:
     rules_compared: list
     posterior: object = None
     warnings: tuple = field(default=())
+    joint: object = None
+
+    @property
+    def mode(self) -> str:
+        """``"joint"`` (pure gases fitted too) or ``"sequential"`` (pure gases from their saved fits)."""
+        return "sequential" if self.joint is None else "joint"
 
     @property
     def parametrisation(self) -> str:
@@ -83,6 +94,11 @@ class InteractionFit:
 
     @property
     def estimate(self) -> str:
+        if self.joint is not None:
+            if self.posterior is not None:
+                return ("posterior median; stderr the posterior standard deviation (pure gases fitted jointly to "
+                        "their own data)")
+            return "weighted least squares of the pure gases and the unlike pair together (joint fit)"
         if self.posterior is not None:
             return "posterior median; stderr the posterior standard deviation (pure-gas parameters marginalised)"
         return "weighted least squares; stderr conditional on the pure-gas fits"

@@ -50,13 +50,17 @@ class InteractionPosterior:
     pure_priors: dict
     priors: dict
     warnings: tuple = field(default=())
+    #: What constrained the pure gases: priors from their saved fits, held fixed, or (the joint
+    #: mode, :mod:`fitkin.interaction.joint`) their own data through the likelihood.
+    pure_constraint: str = ""
 
     def convergence_line(self) -> str:
         d = self.diagnostics
         n = len(next(iter(self.samples.values())))
         state = "converged" if d.converged else "NOT converged: " + "; ".join(d.reasons)
+        pure = self.pure_constraint.split(":")[0] or ("marginalised" if self.marginalised else "fixed")
         return (f"posterior: {n} draws, {d.walkers} walkers × {d.steps} steps (burn-in {d.burn_in}), seed "
-                f"{self.seed}, pure gases {'marginalised' if self.marginalised else 'fixed'}; {state}")
+                f"{self.seed}, pure gases {pure}; {state}")
 
 
 def _theta_priors(model: InteractionModel, start: LeastSquaresResult, priors) -> dict:
@@ -65,8 +69,13 @@ def _theta_priors(model: InteractionModel, start: LeastSquaresResult, priors) ->
         raise FitError(f"prior given for {', '.join(sorted(set(given) - set(model.names)))}, which this fit does "
                        f"not sample; it samples {', '.join(model.names)} (and the pure gases' parameters, whose "
                        "priors are their fits)")
-    return {name: bounded_prior(name, given.get(name), *start.bounds[name], UNITS[name].replace("angstrom", "Å"))
+    return {name: bounded_prior(name, given.get(name), *start.bounds[name], _unit(name).replace("angstrom", "Å"))
             for name in model.names}
+
+
+def _unit(name: str) -> str:
+    """The unit of a sampled parameter: an unlike one, or a pure gas's ``first.sigma`` (joint mode)."""
+    return UNITS.get(name) or {"sigma": "angstrom", "epsilon_over_k": "K"}.get(name.rpartition(".")[2], "")
 
 
 def sample_interaction(model: InteractionModel, points: MixturePoints, start: LeastSquaresResult, *,
@@ -155,4 +164,6 @@ def sample_interaction(model: InteractionModel, points: MixturePoints, start: Le
         samples = {"sigma12": unlike * 1e10, "epsilon12_over_k": depth, **samples}
     return InteractionPosterior(samples=samples, names=names, diagnostics=run.diagnostics, seed=seed,
                                 marginalised=bool(slices), pure_priors={p.which: p.describe() for p in pures},
-                                priors=theta_priors.describe(), warnings=tuple(warnings))
+                                priors=theta_priors.describe(), warnings=tuple(warnings),
+                                pure_constraint="marginalised: priors from their saved fits" if slices else
+                                "fixed: held at their saved fits")
