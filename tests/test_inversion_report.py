@@ -114,3 +114,28 @@ def test_without_virial_perturbed_sets_and_with_one_parametric_curve(run, tmp_pa
     none = dataclasses.replace(bare, parametric=())
     html = _text(write_inversion_report(none, tmp_path / "none"))
     assert "parametric fits drawn</td><td class=\"text\">none" in html
+
+
+def _reproduction_rows(html):
+    section = html[html.index('id="reproduction"'):html.index('id="uncertainty"')]
+    return re.findall(r"<tr>(.*?)</tr>", section)
+
+
+def test_data_given_out_of_temperature_order_are_matched_point_by_point(run, tmp_path):
+    # the inversion sorts by T; a run whose tables came unsorted keeps its own order for the
+    # parametric predictions, and the report must pair each prediction with its own datum
+    flip = slice(None, None, -1)
+    curves = tuple(dataclasses.replace(c, predicted_viscosity=c.predicted_viscosity[flip]) for c in run.parametric)
+    shuffled = dataclasses.replace(run, viscosity=tuple(v[flip] for v in run.viscosity), parametric=curves)
+    a = _reproduction_rows(_text(write_inversion_report(run, tmp_path / "a")))
+    b = _reproduction_rows(_text(write_inversion_report(shuffled, tmp_path / "b")))
+    assert a == b and len(a) == 1 + 1 + len(OVERLAYS)
+    # and the exp-6 overlay at the true parameters reproduces its own noise-free data exactly
+    assert "<td>0</td><td>0</td><td>0</td><td>0</td>" in a[-1]
+
+
+def test_a_single_iteration_says_there_was_no_change_to_test(run, tmp_path):
+    one = dataclasses.replace(run, result=dataclasses.replace(run.result, iterations=run.result.iterations[:1]))
+    html = _text(write_inversion_report(one, tmp_path))
+    assert "did not converge</b> in 1 iteration:" in html and "no point change to test" in html
+    assert "— (first)" in html

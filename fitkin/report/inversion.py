@@ -49,7 +49,9 @@ def _figures(run: InversionRun, ctx: ReportContext) -> None:
                    f"U(r)/k against r. Points: the inverted points with their linearised ± u.{spread} Solid line: "
                    f"the inverted curve inside the probed range {lo:.3f}–{hi:.3f} Å (shaded) with its linearised "
                    "± u band; dashed: the inner wall, dash-dotted: the fitted form beyond the outermost point, "
-                   f"dotted: the −C6/r⁶ − C8/r⁸ tail, all three extrapolated{overlays}.")
+                   f"dotted: the −C6/r⁶ − C8/r⁸ tail, all three extrapolated{overlays}. (b) The repulsive wall "
+                   "on a logarithmic scale, out to the top of the curve's table, where the inner-wall extrapolation "
+                   "and the parametric walls part.")
     ctx.add_figure("inversion_well", ifg.well_figure(run),
                    f"The well: the same curves from just inside σ outwards; dotted cross-hairs at r_min = "
                    f"{res.r_min / ifg.ANGSTROM:.4f} Å and −ε/k = −{res.epsilon_over_k:.3f} K of the inverted curve.")
@@ -57,7 +59,8 @@ def _figures(run: InversionRun, ctx: ReportContext) -> None:
     ctx.add_figure("inversion_reproduction", ifg.reproduction_figure(run),
                    "Data reproduction. Top: (predicted − measured)/u of every viscosity point for the inverted "
                    "curve (filled) and each parametric fit (open), shaded within ± 1; middle: the same in % of the "
-                   f"measured value.{virial}")
+                   f"measured value (shaded within the median u).{virial} Where a curve misses by far more than u the "
+                   "axis is linear within the shaded band and logarithmic beyond it.")
     ctx.add_figure("inversion_uncertainty", ifg.uncertainty_figure(run),
                    "Uncertainty of U/k against r: the linearised u of the curve (solid inside the probed range, "
                    "dashed outside) and of each inverted point"

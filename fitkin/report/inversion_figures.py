@@ -17,6 +17,7 @@ import numpy as np
 from matplotlib.figure import Figure
 from matplotlib.lines import Line2D
 from matplotlib.patches import Patch
+from matplotlib.ticker import FuncFormatter, NullFormatter
 
 from ..errors import FitkinError
 from ..inversion.iterate import DEFAULT_TOLERANCE
@@ -156,20 +157,31 @@ def _deepest(run: InversionRun) -> float:
     return max([run.result.epsilon_over_k] + [c.epsilon_over_k for c in run.parametric])
 
 
-def _label_extrapolations(ax, run: InversionRun, y: float) -> None:
-    lo, hi = run.result.probed_range
+def _label_extrapolations(ax, run: InversionRun, y_fraction: float) -> None:
+    """Name the extrapolated regions left and right of the probed range, where they are wide enough."""
+    lo, hi = (x / ANGSTROM for x in run.result.probed_range)
     x0, x1 = ax.get_xlim()
-    box = {"fontsize": 7.5, "color": st.MUTED, "va": "center"}
-    if lo / ANGSTROM > x0:
-        ax.text(lo / ANGSTROM, y, "inner wall: extrapolated ", ha="right", **box)
-    if hi / ANGSTROM < x1:
-        ax.text(hi / ANGSTROM, y, " beyond the data: extrapolated", ha="left", **box)
+    if ax.get_xscale() != "linear":
+        return
+    box = {"fontsize": 7.5, "color": st.MUTED, "va": "center", "ha": "center", "transform": ax.get_xaxis_transform()}
+    if lo - x0 > 0.15 * (x1 - x0):
+        ax.text(0.5 * (x0 + lo), y_fraction, "inner wall:\nextrapolated", **box)
+    if x1 - hi > 0.15 * (x1 - x0):
+        ax.text(0.5 * (hi + x1), y_fraction, "beyond the data: extrapolated", **box)
+
+
+def _legend_below(fig, handles, ncol: int = 2) -> None:
+    fig.legend(handles=handles, loc="outside lower center", ncol=ncol, fontsize=7.3, frameon=False)
 
 
 def potential_figure(run: InversionRun) -> Figure:
-    """U(r)/k over the whole probed range and its extrapolations, parametric fits overlaid."""
+    """(a) U(r)/k over the probed range and its extrapolations, parametric fits overlaid;
+    (b) the repulsive wall on a logarithmic scale, out to the top of the table."""
     res = run.result
-    fig, ax = _single(5.4)
+    fig = _new(6.0)
+    ax, wall = fig.subplots(1, 2, gridspec_kw={"width_ratios": [1.7, 1.0]})
+    for a in (ax, wall):
+        st.style_axes(a)
     r_hi = max(3.0 * res.sigma, res.curve_r[-1] * 1.15)
     handles = _draw_potential(ax, run, r_hi)
     eps = _deepest(run)
@@ -178,15 +190,25 @@ def potential_figure(run: InversionRun) -> Figure:
     inside = res.curve_r[res.curve_energy_over_k <= top]
     ax.set_xlim(inside.min() / ANGSTROM - 0.05, r_hi / ANGSTROM)
     ax.set_ylim(-1.35 * eps, top)
-    _label_extrapolations(ax, run, 0.8 * top)
-    ax.legend(handles=handles, fontsize=7.2, frameon=False, loc="upper right")
+    _label_extrapolations(ax, run, 0.06)
+    ax.set_title("(a) the whole curve", fontsize=9, loc="left", color=st.INK)
+    _draw_potential(wall, run, res.sigma)
+    wall.set_yscale("log")
+    positive = res.curve_energy_over_k[res.curve_energy_over_k > 0]
+    wall.set_ylim(0.05 * eps, 2.0 * max(positive.max(), points_top))
+    wall.set_xlim(0.98 * res.curve_r[0] / ANGSTROM, res.sigma / ANGSTROM)
+    lo = res.probed_range[0] / ANGSTROM
+    wall.text(0.5 * (wall.get_xlim()[0] + lo), 0.06, "inner wall:\nextrapolated", transform=wall.get_xaxis_transform(),
+              fontsize=7.5, color=st.MUTED, ha="center", va="center")
+    wall.set_title("(b) the wall, U > 0, log scale", fontsize=9, loc="left", color=st.INK)
+    _legend_below(fig, handles)
     return fig
 
 
 def well_figure(run: InversionRun) -> Figure:
     """The same curves, zoomed on the well: from just inside σ to where U is near zero again."""
     res = run.result
-    fig, ax = _single(4.4)
+    fig, ax = _single(5.6)
     r_hi = max(2.2 * res.sigma, 1.6 * res.r_min)
     handles = _draw_potential(ax, run, r_hi)
     eps = _deepest(run)
@@ -194,8 +216,8 @@ def well_figure(run: InversionRun) -> Figure:
     ax.set_ylim(-1.18 * eps, 0.35 * eps)
     ax.axhline(-res.epsilon_over_k, color=st.MUTED, lw=0.6, ls=(0, (1, 3)))
     ax.axvline(res.r_min / ANGSTROM, color=st.MUTED, lw=0.6, ls=(0, (1, 3)))
-    _label_extrapolations(ax, run, 0.25 * eps)
-    ax.legend(handles=handles, fontsize=7.0, frameon=False, loc="lower right", ncol=1)
+    _label_extrapolations(ax, run, 0.92)
+    _legend_below(fig, handles)
     return fig
 
 
@@ -206,6 +228,16 @@ def _series(ax, T, values, rep: Reproduction) -> None:
         ax.plot(T, values, ls="-", lw=0.7, marker=rep.marker, ms=4.5, color=rep.colour, mfc="white", zorder=3)
 
 
+def _compress(ax, values, linear: float) -> None:
+    """A symmetric-log y axis, linear within ± ``linear``, when the largest |value| exceeds it 15-fold
+    (a poor parametric fit would otherwise flatten the inverted curve's deviations)."""
+    values = np.concatenate([np.ravel(v) for v in values])
+    values = values[np.isfinite(values)]
+    if values.size and np.max(np.abs(values)) > 15.0 * linear:
+        ax.set_yscale("symlog", linthresh=linear, linscale=1.0)
+        ax.yaxis.set_major_formatter(FuncFormatter(lambda v, _: f"{v:g}"))
+
+
 def reproduction_figure(run: InversionRun) -> Figure:
     """(predicted − measured)/u and in % for μ, and (predicted − measured)/u(B) for B(T) if measured,
     for the inverted curve and every parametric fit."""
@@ -213,34 +245,42 @@ def reproduction_figure(run: InversionRun) -> Figure:
     reps = reproductions(run)
     has_b = run.virial is not None and any(r.virial is not None for r in reps)
     n = 3 if has_b else 2
-    fig = _new(2.0 + 1.9 * n)
+    fig = _new(2.4 + 1.9 * n)
     axes = fig.subplots(n, 1, squeeze=False)[:, 0]
     for ax in axes:
         st.style_axes(ax)
         ax.axhline(0.0, color=st.MUTED, lw=0.8)
-    for ax in (axes[0], axes[2] if has_b else None):
-        if ax is not None:
-            ax.axhspan(-1.0, 1.0, color=_PROBED, zorder=0, lw=0)
-    for rep in reps:
-        _series(axes[0], T, (rep.viscosity - mu) / u, rep)
-        _series(axes[1], T, 100.0 * (rep.viscosity - mu) / mu, rep)
+    u_pct = float(np.median(100 * u / mu))
+    axes[0].axhspan(-1.0, 1.0, color=_PROBED, zorder=0, lw=0)
+    axes[1].axhspan(-u_pct, u_pct, color=_PROBED, zorder=0, lw=0)
+    z = [(rep.viscosity - mu) / u for rep in reps]
+    pct = [100.0 * (rep.viscosity - mu) / mu for rep in reps]
+    for rep, a, b in zip(reps, z, pct):
+        _series(axes[0], T, a, rep)
+        _series(axes[1], T, b, rep)
+    _compress(axes[0], z, 1.0)
+    _compress(axes[1], pct, u_pct)
     axes[0].set_ylabel("μ: (pred. − meas.)/u", fontsize=8.5)
     axes[1].set_ylabel("μ: 100 (pred. − meas.)/meas. [%]", fontsize=8.5)
     for ax in axes[:2]:
         ax.set_xscale("log")
+        ax.xaxis.set_major_formatter(FuncFormatter(lambda v, _: f"{v:g}"))
         ax.set_xlabel("T [K]")
     if has_b:
         tb, b, ub = (np.atleast_1d(np.asarray(v, float)) for v in run.virial)
         ub = np.broadcast_to(ub, tb.shape)
+        zb = [(rep.virial - b) / ub for rep in reps if rep.virial is not None]
+        axes[2].axhspan(-1.0, 1.0, color=_PROBED, zorder=0, lw=0)
         for rep in reps:
             if rep.virial is not None:
                 _series(axes[2], tb, (rep.virial - b) / ub, rep)
+        _compress(axes[2], zb, 1.0)
         axes[2].set_ylabel("B: (pred. − meas.)/u(B)", fontsize=8.5)
         axes[2].set_xlabel("T [K] (B(T) data)")
     handles = [Line2D([], [], ls="-", lw=0.8, marker=r.marker, ms=4.5, color=r.colour,
                       mfc=r.colour if r.inverted else "white", label=r.label) for r in reps]
-    handles.append(Patch(color=_PROBED, label="within ± u"))
-    axes[0].legend(handles=handles, fontsize=7.5, frameon=False, ncol=2, loc="best")
+    handles.append(Patch(color=_PROBED, label="within ± u (in %: the median u)"))
+    fig.legend(handles=handles, loc="outside upper center", ncol=3, fontsize=7.5, frameon=False)
     return fig
 
 
@@ -290,6 +330,8 @@ def iteration_figure(run: InversionRun) -> Figure:
     values = values[np.isfinite(values) & (values > 0)]
     if values.size and values.max() / values.min() > 20:
         ax.set_yscale("log")
+        ax.yaxis.set_major_formatter(FuncFormatter(lambda v, _: f"{v:g}"))
+        ax.yaxis.set_minor_formatter(NullFormatter())
     ax.set_xticks(k)
     ax.set_xlabel("iteration")
     ax.set_ylabel("criterion")
