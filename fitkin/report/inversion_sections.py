@@ -81,7 +81,7 @@ def summary_section(run: InversionRun) -> Section:
     c6 = tail.get("C6_K_m6")
     cards = [("σ (zero crossing)", _length(res.sigma), "of the inverted curve"),
              ("ε/k (well depth)", f"{res.epsilon_over_k:.3f} K",
-              f"curve's linearised u(U) at r_min: {_u_at_minimum(run):.2g} K"),
+              f"curve's linearised u(U) at r_min: {_g(_u_at_minimum(run), 2)} K"),
              ("r_min (well minimum)", _length(res.r_min), f"r_min/σ = {res.r_min / res.sigma:.4f}"),
              ("probed range", f"{lo / ANGSTROM:.3f}–{hi / ANGSTROM:.3f} Å",
               f"{lo / res.sigma:.3f}–{hi / res.sigma:.3f} σ, from {T.size} viscosity points "
