@@ -81,9 +81,9 @@ def fit_interaction(first, second, tables, *, rule: str = "lorentz-berthelot", f
         if sample and not marginalise:
             raise FitError("the joint mode fits the pure gases; holding them fixed (marginalise=False, --fix-pure) "
                            "contradicts it")
-        pure = read_pure_tables(pure_tables or {}, pair_names(g1, g2), read_options, pressure)
+        pure, notes = read_pure_tables(pure_tables or {}, pair_names(g1, g2), read_options, pressure)
         return fit_joint(model, points, pure, sample=sample, priors=priors, walkers=walkers, max_steps=max_steps,
-                         seed=seed, progress=progress)
+                         seed=seed, progress=progress, notes=notes)
     least_squares, posterior, warnings = search_and_sample(
         model, points, sample=sample, priors=priors, walkers=walkers, max_steps=max_steps, seed=seed,
         marginalise=marginalise, progress=progress)

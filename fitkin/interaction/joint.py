@@ -54,8 +54,9 @@ def pure_limit_mask(points: MixturePoints, role: str) -> np.ndarray:
 
 
 def read_pure_tables(pure_tables: dict, names: tuple, read_options: dict | None = None,
-                     pressure: float | None = None) -> dict:
-    """{role: FitData or None} of the pure tables given per gas.
+                     pressure: float | None = None) -> tuple[dict, list]:
+    """({role: FitData or None}, warnings) of the pure tables given per gas (the warnings: each
+    table's own, such as points above the pressure limit, and what was assumed for points without u).
 
     pure_tables : {gas: [table files or MeasuredTable s]}, a gas named by ``first``/``second``
         or by one of the names in ``names`` (the two gases' names and formulas, as mixture
@@ -68,14 +69,16 @@ def read_pure_tables(pure_tables: dict, names: tuple, read_options: dict | None 
         role = _role_of(str(gas), names)
         tables = [tables] if isinstance(tables, (str, MeasuredTable)) or hasattr(tables, "__fspath__") else tables
         by_role[role] += list(tables)
-    out = {}
+    out, warnings = {}, []
     for role in ROLES:
         given = by_role[role]
         paths = [t for t in given if not isinstance(t, MeasuredTable)]
         read = list(read_tables(paths, **(read_options or {}), default_pressure=pressure)) if paths else []
         tables = [t if isinstance(t, MeasuredTable) else read.pop(0) for t in given]
         out[role] = FitData.from_tables(tables) if tables else None
-    return out
+        warnings += [f"{t.path}: {w}" for t in tables for w in t.warnings]
+        warnings += list(out[role].notes) if out[role] is not None else []
+    return out, warnings
 
 
 def _role_of(gas: str, names: tuple) -> str:

@@ -37,8 +37,9 @@ def search_and_sample(model, points, *, sample: bool, **sampling) -> tuple:
 
 def fit_joint(model: InteractionModel, points: MixturePoints, pure: dict, *, sample: bool = False,
               priors: dict | None = None, walkers: int | None = None, max_steps: int = 20000,
-              seed: int | None = None, progress: bool = False) -> InteractionFit:
-    """The :class:`InteractionFit` of the joint mode; ``pure``: {role: FitData or None}."""
+              seed: int | None = None, progress: bool = False, notes=()) -> InteractionFit:
+    """The :class:`InteractionFit` of the joint mode; ``pure``: {role: FitData or None}; ``notes``:
+    warnings of the pure tables, kept with the fit's."""
     joint_model, joint_points = JointModel(model), JointPoints(points, pure)
     least_squares, posterior, warnings = search_and_sample(
         joint_model, joint_points, sample=sample, priors=priors, walkers=walkers, max_steps=max_steps, seed=seed,
@@ -50,4 +51,4 @@ def fit_joint(model: InteractionModel, points: MixturePoints, pure: dict, *, sam
                                 parametrisation=model.parametrisation, pair_options=dict(model.pair_options))
     return InteractionFit(model=refitted, points=points, least_squares=joint.unlike_least_squares(),
                           rules_compared=rules_compared(refitted, points), posterior=posterior,
-                          warnings=tuple(warnings), joint=joint)
+                          warnings=tuple(notes) + tuple(warnings), joint=joint)

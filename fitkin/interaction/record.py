@@ -4,7 +4,9 @@ Format ``fitkin-interaction``, version 1 (the schema is in docs/file-formats.md 
 /work/interaction-schema.md): the pair, both pure gases' parameter records embedded with the
 files' SHA-256, the unlike potential, the fitted parameters (σ12 in Å, ε12/k in K, k12 and
 l12 dimensionless) with covariance, the combining rules compared, statistics, the posterior's
-summary and its samples file, the data files, provenance and the caution.
+summary and its samples file, the data files, provenance and the caution; ``mode``
+(sequential or joint) and, for a joint fit, ``joint`` (every parameter and their covariance,
+the pure gases saved and refitted, their data's statistics and residuals).
 """
 from __future__ import annotations
 

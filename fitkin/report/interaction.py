@@ -72,16 +72,49 @@ def _statistics(fit: InteractionFit) -> str:
     return text
 
 
+def _pure_gases(fit: InteractionFit) -> str:
+    """The joint mode: each pure gas's σ, ε/k saved and jointly fitted, and its own data's deviations."""
+    joint = fit.joint
+    if joint is None:
+        return ""
+    rows = []
+    stats = joint.statistics()
+    for role, gas in zip(("first", "second"), (fit.model.first, fit.model.second)):
+        for name, entry in joint.pure_parameters()[role].items():
+            unit = _UNITS[entry["unit"]]
+            rows.append((gas.gas.name, {"sigma": "σ", "epsilon_over_k": "ε/k"}[name],
+                         f"{format_estimate(entry['saved']['value'], entry['saved']['stderr'])} {unit}",
+                         f"{format_estimate(entry['joint']['value'], entry['joint']['stderr'])} {unit}"))
+    dev = []
+    for role, gas in zip(("first", "second"), (fit.model.first, fit.model.second)):
+        s = stats[role]
+        rms = ", ".join(f"{k} {v:.3g} %" for k, v in s.get("rms_percent_by_kind", {}).items()) or "no tables"
+        dev.append((gas.gas.name, s.get("n_points", 0), rms, s["pure_limit_points_in_mixture_tables"]))
+    red = f"{stats['reduced_chi2']:.3g}" if stats["reduced_chi2"] is not None else "—"
+    return (f"<p>{escape(joint.model.saved['first'].gas.name)} and {escape(joint.model.saved['second'].gas.name)} "
+            f"were {escape(fit.posterior.pure_constraint if fit.posterior is not None else 'fitted jointly')} with "
+            "the unlike pair; each gas's potential shape, internal-energy model, Sonine order and collision "
+            "integrals are those of its parameter file.</p>"
+            + _table(("gas", "parameter", "saved fit", "joint fit"), rows)
+            + _table(("gas", "points of its own tables", "rms deviation", "pure-limit points in the mixture tables"),
+                     dev)
+            + f"<p>All data: χ² = {stats['chi2']:.4g} for {stats['dof']} degrees of freedom (reduced {red}).</p>")
+
+
 def _posterior(fit: InteractionFit) -> str:
     post = fit.posterior
+    if post is None and fit.joint is not None:
+        return ("<p>Not sampled: the standard uncertainties are those of the joint least-squares fit (pure gases "
+                "and unlike pair together).</p>")
     if post is None:
         return ("<p>Not sampled: the standard uncertainties are those of least squares with the pure gases "
                 "held at their fits. <code>fitkin mix ... --sample</code> marginalises over the pure gases' "
                 "uncertainty.</p>")
     d = post.diagnostics
     rows = [(n, f"{t:.1f}", f"{r:.3f}", f"{e:.0f}") for n, t, r, e in zip(d.names, d.tau, d.rhat, d.ess)]
-    pure = "; ".join(f"{w}: {p['from']}" for w, p in post.pure_priors.items()) or "none (held fixed)"
-    return (f"<p>{escape(post.convergence_line())}.</p><p>Pure-gas priors: {escape(pure)}.</p>"
+    pure = "; ".join(f"{w}: {p['from']}" for w, p in post.pure_priors.items()) or post.pure_constraint or \
+        "none (held fixed)"
+    return (f"<p>{escape(post.convergence_line())}.</p><p>Pure gases: {escape(pure)}.</p>"
             + _table(("parameter", "τ [steps]", "split R̂", "effective samples"), rows))
 
 
@@ -100,6 +133,7 @@ def build_interaction_report(fit: InteractionFit, record: dict | None = None) ->
     pair = fit.pair()
     sections = [("summary", "Unlike pair", _parameters(fit) + _rules(fit)),
                 ("quality", "Quality of the fit", _statistics(fit)),
+                ("pure", "Pure gases (joint fit)", _pure_gases(fit)),
                 ("composition", "Data against composition", _svg(ifg.composition_figure(fit))),
                 ("temperature", "Data against temperature", _svg(ifg.temperature_figure(fit))),
                 ("deviations", "Deviations", _svg(ifg.interaction_deviation_figure(fit))),
