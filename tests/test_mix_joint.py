@@ -182,3 +182,23 @@ def test_joint_sample_short_run(tmp_path, capsys, files):
     assert lower < median < upper
     html = (out / "report.html").read_text(encoding="utf-8")
     assert "Pure gases (joint fit)" in html and "saved fit" in html
+
+
+def test_joint_with_fit_deviations_and_mixed_weights_refused(tmp_path, capsys, files):
+    out = tmp_path / "dev"
+    code, _, err = run(capsys, "mix", *_joint_args(files), "--fit-deviations", "--out", out, "--no-report")
+    assert code == 0, err
+    r = record(out)
+    assert r["parametrisation"] == "deviations" and r["mode"] == "joint"
+    assert r["joint"]["covariance"]["names"] == ["k12", "l12", "first.sigma", "first.epsilon_over_k",
+                                                 "second.sigma", "second.epsilon_over_k"]
+    assert fitkin.load_interaction(out / "interaction.json").viscosity(300.0, 0.5, band=0.9)[1] > 0
+    # argon's table without its u column, the mixture's with: refused, as a pure-gas fit refuses it
+    rows = [line.rsplit(",", 1)[0] for line in files["ar_visc"].read_text(encoding="utf-8").splitlines()
+            if not line.startswith("#")]
+    files["ar_visc"].write_text("\n".join(rows) + "\n", encoding="utf-8")
+    code, _, err = run(capsys, "mix", *_joint_args(files), "--out", tmp_path / "w")
+    assert code == 2 and "with and without uncertainties" in err
+    code, _, err = run(capsys, "mix", files["ar"], files["kr"], files["mix"], "--pure-table",
+                       f"Kr={files['kr_visc']}", "--out", tmp_path / "w")
+    assert code == 2 and "--pure-table Ar=FILE" in err and "x(Ar) = 1" in err

@@ -211,9 +211,10 @@ class JointModel:
             data, label = points.pure.get(role), gas.gas.name or gas.gas.formula
             if data is None and not pure_limit_mask(points.mixture, role).any():
                 x = "1" if role == "first" else "0"
+                short = {r: g.gas.formula or g.gas.name for r, g in self.saved.items()}
                 raise FitError(f"the joint fit has no data of {label} alone to determine its σ and ε/k: give its "
-                               f"measured tables (--pure-table {label}=FILE) or mixture points at x({self.saved['first'].gas.name}) "
-                               f"= {x}")
+                               f"measured tables (--pure-table {short[role]}=FILE) or mixture points at "
+                               f"x({short['first']}) = {x}")
             if data is None:
                 continue
             if "conductivity" in data.kinds and not gas.has_conductivity_model:
