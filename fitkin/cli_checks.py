@@ -124,9 +124,8 @@ def _check_mix(args) -> None:
                              f"--pure-table Ar=argon_visc.csv; got {entry!r}")
 
 
-def _check_fit(args) -> None:
-    _check_out(args, folder=True)
-    _check_tables(args)
+def _check_fit_gas(args) -> None:
+    """--formula, --name and --molar-mass of fit and invert."""
     if args.formula is not None and not args.formula.strip():
         raise UsageError("--formula is empty; give the gas's chemical formula, e.g. --formula Ar or --formula CO2")
     if args.name is not None and not args.name.strip():
@@ -134,6 +133,12 @@ def _check_fit(args) -> None:
                          "(the formula or the gas file's name is used)")
     if args.molar_mass is not None:
         _molar_mass_unit_hint(args.molar_mass)
+
+
+def _check_fit(args) -> None:
+    _check_out(args, folder=True)
+    _check_tables(args)
+    _check_fit_gas(args)
     if args.order < 1:
         raise UsageError(f"--order must be a whole number ≥ 1, got {args.order}")
     if args.collision == "neufeld":
@@ -217,11 +222,22 @@ def _check_plan(args) -> None:
     _positive_quantity(args.pressure, "Pa", "--pressure", "101325 Pa")
 
 
+def _check_invert(args) -> None:
+    _check_fit_gas(args)
+    _check_out(args, folder=True)
+    _check_tables(args)
+    _check_seed(args.seed)
+    if not 1 <= args.iterations <= 50:
+        raise UsageError(f"--iterations must be a whole number from 1 to 50, got {args.iterations}")
+    if args.perturbed < 0 or args.perturbed == 1:
+        raise UsageError(f"--perturbed must be 0 (none) or at least 2 (a spread needs two sets), got {args.perturbed}")
+
+
 def check_arguments(args) -> None:
     """Raise :class:`UsageError` (or :class:`UnitError`) for an option value or combination that
     cannot work; fill in defaults that depend on other options."""
     check = {"check": _check_tables, "fit": _check_fit, "predict": _check_predict, "report": _check_report,
              "demo": lambda a: _check_out(a, folder=True), "plan": _check_plan,
-             "library": lambda a: _check_out(a, folder=True), "mix": _check_mix}.get(args.command)
+             "library": lambda a: _check_out(a, folder=True), "mix": _check_mix, "invert": _check_invert}.get(args.command)
     if check is not None:
         check(args)

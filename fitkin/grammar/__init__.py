@@ -7,7 +7,7 @@ from __future__ import annotations
 import argparse
 
 from .. import __version__
-from . import pairs, single_gas, workflows
+from . import inversion, pairs, single_gas, workflows
 
 __all__ = ["build_parser", "subcommand_parser"]
 
@@ -20,7 +20,7 @@ def build_parser() -> argparse.ArgumentParser:
     parser.add_argument("--version", action="version", version=f"fitkin {__version__}")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND")
     for add in (single_gas.add_check, single_gas.add_fit, single_gas.add_predict, single_gas.add_report,
-                pairs.add_mix, workflows.add_plan, workflows.add_batch, workflows.add_library, single_gas.add_demo):
+                pairs.add_mix, inversion.add_invert, workflows.add_plan, workflows.add_batch, workflows.add_library, single_gas.add_demo):
         add(sub)
     return parser
 

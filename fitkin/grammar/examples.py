@@ -52,3 +52,8 @@ EPILOG_DEMO = """examples:
   fitkin demo                       (writes ./fitkin-demo/)
   fitkin demo --out /tmp/demo --force
 """
+EPILOG_INVERT = """examples:
+  fitkin invert argon_visc.csv argon_virial.csv --formula Ar --out inv-argon
+  fitkin invert visc.csv --formula Ar --start lj --iterations 5 --perturbed 0 --out inv --force
+  fitkin fit visc.csv --formula Ar --potential inv-argon/potential.csv --out fit-tab   (reuse the curve)
+"""

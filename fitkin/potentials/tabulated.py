@@ -268,14 +268,18 @@ class Tabulated(Potential):
     # --------------------------------------------------------------------------- file
     @classmethod
     def from_file(cls, path) -> "Tabulated":
-        """Read a two-column table with a header naming the units, e.g. ``r [Å], U [K]``.
+        """Read a table with a header naming the units, e.g. ``r [Å], U [K]``.
 
+        The distance and energy columns are the two columns that are neither an uncertainty
+        ``u(...)`` nor ``probed``; those two extra columns (as ``fitkin invert`` writes them in
+        ``potential.csv``: ``r [Å], U/k [K], u(U/k) [K], probed``) are read past and ignored.
         Columns are separated by commas, tabs, semicolons or spaces; lines starting with
         ``#`` are comments; units are written in brackets ``[...]`` or parentheses.
 
         Raises
         ------
-        InputError : missing file, header without units, a row that is not two numbers.
+        InputError : missing file, header without units, a column other than distance, energy,
+            u(...) and probed, a row whose cells do not match the header or are not numbers.
         PotentialError : a table that is not a usable potential (see the class).
         """
         path = Path(path)
@@ -286,36 +290,60 @@ class Tabulated(Potential):
         rows = [(i + 1, ln) for i, ln in enumerate(lines) if ln.strip() and not ln.lstrip().startswith("#")]
         if not rows:
             raise InputError("the potential table is empty", file=str(path))
-        split = lambda s: [c.strip() for c in re.split(r"[,;\t]|\s{2,}", s.strip()) if c.strip()]  # noqa: E731
         header_row, header = rows[0]
-        cols = split(header)
-        if len(cols) != 2:  # single spaces between columns: pick out 'label [unit]' pairs
-            pairs = re.findall(r"([^\s\[\]()][^\[\]()]*?)\s*[\[(]([^\])]+)[\])]", header)
-            if len(pairs) == 2:
-                cols = [f"{a.strip()} [{b.strip()}]" for a, b in pairs]
-        if len(cols) != 2:
-            raise InputError(f"expected a header with two columns (distance and energy), found {len(cols)}",
-                             file=str(path), row=header_row, hint="e.g. 'r [Å], U [K]'")
-        units = []
-        for col in cols:
-            m = re.search(r"[\[(]\s*([^\])]+?)\s*[\])]\s*$", col)
-            if not m:
-                raise InputError("column header without a unit", file=str(path), row=header_row,
-                                 column=col, hint="write the unit in brackets, e.g. 'r [Å]'")
-            units.append(m.group(1))
-        r_vals, u_vals = [], []
+        cols, keep, units = _table_columns(header, file=str(path), row=header_row)
+        values = []
         for row, line in rows[1:]:
             cells = [c for c in re.split(r"[,;\s]+", line.strip()) if c]
+            if len(cells) != len(cols):
+                what = "two numbers" if len(cols) == 2 else f"{len(cols)} cells ({', '.join(cols)})"
+                raise InputError(f"expected {what}, found '{line.strip()}'", file=str(path), row=row)
             try:
-                if len(cells) != 2:
-                    raise ValueError
-                r_vals.append(float(cells[0]))
-                u_vals.append(float(cells[1]))
+                values.append([float(cells[i]) for i in keep])
             except ValueError:
-                raise InputError(f"expected two numbers, found '{line.strip()}'", file=str(path), row=row) from None
-        r_m = _length_m(np.array(r_vals), units[0], file=str(path), column=cols[0])
-        u_k = _energy_over_k(np.array(u_vals), units[1], file=str(path), column=cols[1])
+                bad = next(i for i in keep if not _is_number(cells[i]))
+                raise InputError(f"expected a number, found '{cells[bad]}'", file=str(path), row=row,
+                                 column=cols[bad]) from None
+        table = np.array(values, dtype=float).reshape(-1, 2)
+        r_m = _length_m(table[:, 0], units[0], file=str(path), column=cols[keep[0]])
+        u_k = _energy_over_k(table[:, 1], units[1], file=str(path), column=cols[keep[1]])
         obj = cls.__new__(cls)
         obj.source = str(path)
         obj._setup(r_m, u_k)
         return obj
+
+
+#: Header cells of columns a potential table may carry beside distance and energy, read past:
+#: an uncertainty ``u(...)`` (lower-case u directly followed by a parenthesis) and ``probed``.
+_IGNORED_COLUMN = re.compile(r"^(u\([^)]*\)\s*([\[(][^\])]*[\])])?|(?i:probed))$")
+
+
+def _is_number(text: str) -> bool:
+    try:
+        float(text)
+    except ValueError:
+        return False
+    return True
+
+
+def _table_columns(header: str, *, file: str, row: int):
+    """(header cells, indices of the distance and energy columns, their unit texts)."""
+    cols = [c.strip() for c in re.split(r"[,;\t]|\s{2,}", header.strip()) if c.strip()]
+    if len(cols) < 2:  # single spaces between columns: pick out 'label [unit]' pairs
+        pairs = re.findall(r"([^\s\[\]()][^\[\]()]*?)\s*[\[(]([^\])]+)[\])]", header)
+        if len(pairs) == 2:
+            cols = [f"{a.strip()} [{b.strip()}]" for a, b in pairs]
+    keep = [i for i, c in enumerate(cols) if not _IGNORED_COLUMN.match(c)]
+    if len(keep) != 2:
+        found = ", ".join(f"'{cols[i]}'" for i in keep) or "none"
+        raise InputError(f"expected a distance and an energy column (besides them only u(...) and 'probed' "
+                         f"columns, which are ignored), found {len(keep)}: {found}", file=file, row=row,
+                         hint="e.g. 'r [Å], U [K]' or 'r [Å], U/k [K], u(U/k) [K], probed'")
+    units = []
+    for i in keep:
+        m = re.search(r"[\[(]\s*([^\])]+?)\s*[\])]\s*$", cols[i])
+        if not m:
+            raise InputError("column header without a unit", file=file, row=row,
+                             column=cols[i], hint="write the unit in brackets, e.g. 'r [Å]'")
+        units.append(m.group(1))
+    return cols, keep, units
