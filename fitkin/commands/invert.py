@@ -7,8 +7,8 @@ import sys
 from pathlib import Path
 
 from .. import __version__
-from ..errors import OutputExistsError
 from ..inversion.job import run_inversion
+from ..io.atomic import refuse_existing
 from ..io.inversion_files import POTENTIAL_NAME, RECORD_NAME, write_inversion_files
 from .fit import gas_from_args
 from .tables import read_from_args
@@ -22,17 +22,6 @@ __all__ = ["run_invert", "format_inversion_summary", "REPORT_NAME"]
 
 REPORT_NAME = "report.html"
 ANGSTROM = 1e-10
-
-
-def _planned(out_dir: Path, args) -> dict:
-    planned = {"potential": out_dir / POTENTIAL_NAME, "record": out_dir / RECORD_NAME,
-               "report": out_dir / REPORT_NAME}
-    if not args.force:
-        present = [str(p) for p in planned.values() if p.exists()]
-        if present:
-            raise OutputExistsError(f"an earlier run left {', '.join(present)}; pass --force to replace "
-                                    f"{'them' if len(present) > 1 else 'it'}, or choose another --out")
-    return planned
 
 
 def format_inversion_summary(run, written) -> str:
@@ -63,7 +52,8 @@ def format_inversion_summary(run, written) -> str:
 
 def run_invert(args, out) -> int:
     out_dir = Path(args.out)
-    planned = _planned(out_dir, args)
+    planned = {name: out_dir / name for name in (POTENTIAL_NAME, RECORD_NAME, REPORT_NAME)}
+    refuse_existing(planned.values(), args.force)  # before any work
     tables = read_from_args(args)
     for t in tables:
         for w in t.warnings:
@@ -81,8 +71,8 @@ def run_invert(args, out) -> int:
         except Exception as exc:  # noqa: BLE001 - the report never undoes a finished inversion
             notes.append(f"warning: the report could not be made ({type(exc).__name__}: {exc}); the inversion "
                          "files are written")
-    elif planned["report"].exists():  # --force over a run with a report: it describes another inversion
-        planned["report"].unlink()
+    elif planned[REPORT_NAME].exists():  # --force over a run with a report: it describes another inversion
+        planned[REPORT_NAME].unlink()
         notes.append(f"removed {planned['report']} (of the replaced run)")
     print(format_inversion_summary(run, written), file=out)
     for n in notes:

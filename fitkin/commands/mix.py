@@ -5,12 +5,11 @@ import shlex
 import sys
 from pathlib import Path
 
-from ..errors import OutputExistsError
 from ..inference.priors import parse_prior_assignment
 from ..interaction import fit_interaction
 from ..interaction.record import SAMPLES_NAME, interaction_record, samples_arrays
 from ..interaction.summary import format_interaction_summary
-from ..io.atomic import check_output_place
+from ..io.atomic import check_output_place, refuse_existing
 from ..io.interaction_file import file_reference, write_interaction_file, write_samples_file
 from ..report.interaction import REPORT_NAME, write_interaction_report
 from ..units import parse_quantity
@@ -25,11 +24,7 @@ def _outputs(out_dir: Path, args) -> dict:
     """The files this run writes, refusing existing ones without --force."""
     planned = {"record": out_dir / INTERACTION_NAME, "samples": out_dir / SAMPLES_NAME,
                "report": out_dir / REPORT_NAME}
-    if not args.force:
-        present = [str(p) for p in planned.values() if p.exists()]
-        if present:
-            raise OutputExistsError(f"{', '.join(present)} already exist{'s' if len(present) == 1 else ''}; "
-                                    "use --force to replace, or choose another --out")
+    refuse_existing(planned.values(), args.force)
     return planned
 
 

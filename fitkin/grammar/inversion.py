@@ -19,8 +19,6 @@ def add_invert(sub) -> None:
     p.add_argument("--name", help="name of the gas in outputs (default: the formula)")
     p.add_argument("--monatomic", action="store_true",
                    help="the gas given by --molar-mass is monatomic (its conductivity is then inverted too)")
-    p.add_argument("--out", required=True, metavar="DIR", help="folder for potential.csv, inversion.json, report.html")
-    p.add_argument("--force", action="store_true", help="replace this command's earlier outputs in DIR")
     p.add_argument("--start", default="best", metavar="START",
                    help="starting potential: best (default: the lowest-AIC of Lennard-Jones, Mie and exp-6 fits "
                         "of the same data), lj, mie, exp6, or the parameters.json of an earlier fit")
@@ -31,4 +29,6 @@ def add_invert(sub) -> None:
     p.add_argument("--seed", type=int, default=20261203, help="seed of the perturbed sets (default 20261203)")
     p.add_argument("--quantum-virial", action="store_true",
                    help="the B(T) data include quantum effects: remove the first Wigner–Kirkwood term each iteration")
+    p.add_argument("--out", required=True, metavar="DIR", help="folder for potential.csv, inversion.json, report.html")
+    p.add_argument("--force", action="store_true", help="replace this command's earlier outputs in DIR")
     p.add_argument("--no-report", action="store_true", help="do not write DIR/report.html")

@@ -17,7 +17,7 @@ from pathlib import Path
 
 from ..errors import OutputError, OutputExistsError
 
-__all__ = ["write_text_atomic", "write_bytes_atomic", "check_can_write", "check_output_place",
+__all__ = ["write_text_atomic", "write_bytes_atomic", "check_can_write", "check_output_place", "refuse_existing",
            "written_paths", "forget_written_paths"]
 
 
@@ -84,6 +84,15 @@ def check_can_write(path: str | os.PathLike, force: bool = False) -> Path:
     if p.exists() and not p.is_dir() and not force:
         raise OutputExistsError(f"an earlier run left {p}; pass --force to replace it, or choose another output")
     return check_output_place(p, what="output")
+
+
+def refuse_existing(paths, force: bool = False) -> None:
+    """Raise :class:`OutputExistsError` naming every one of ``paths`` that exists (unless ``force``):
+    a command checks its planned outputs with this before any work."""
+    present = [str(p) for p in paths if Path(p).exists()]
+    if present and not force:
+        raise OutputExistsError(f"{', '.join(present)} already exist{'s' if len(present) == 1 else ''}; "
+                                "use --force to replace, or choose another --out")
 
 
 def _place_error(p: Path, exc: OSError) -> OutputError:
