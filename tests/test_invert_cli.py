@@ -59,6 +59,7 @@ def test_files_and_record(inverted):
     # exp-6 data: the exp-6 fit has the lowest AIC and starts the iteration
     assert record["start"]["description"].startswith("given: exp-6")
     assert 1 <= len(record["iterations"]) <= 3 and record["converged"] is True
+    assert (out / "report.html").is_file()
     pts = record["points"]
     assert len(pts) == T.size and all(p["u_linearised_K"] > 0 and p["u_perturbed_K"] is not None for p in pts)
     lo, hi = record["probed_range_angstrom"]
@@ -99,6 +100,7 @@ def test_options_and_force(inverted, capsys):
                       "--out", out], capsys)
     assert code == 0, text
     assert "iter" in text and "σ =" in text and "Probed by the data" in text
+    assert "removed" in text and not (out / "report.html").exists()     # --no-report --force: the old report goes
     record = json.loads((out / "inversion.json").read_text(encoding="utf-8"))
     assert record["gas"]["name"] == "synthetic-gas" and record["provenance"]["seed"] == 7
     assert record["options"]["quantum_virial"] is True and record["options"]["start"] == "lj"

@@ -12,15 +12,11 @@ from ..io.atomic import refuse_existing
 from ..io.inversion_files import POTENTIAL_NAME, RECORD_NAME, write_inversion_files
 from .fit import gas_from_args
 from .tables import read_from_args
-
-try:  # the report module lands separately; until then the run writes no report
-    from ..report.inversion import write_inversion_report
-except ImportError:  # pragma: no cover - depends on what is on main
-    write_inversion_report = None
+from ..report.html import FIGURE_FOLDER, REPORT_NAME
+from ..report.inversion import write_inversion_report
 
 __all__ = ["run_invert", "format_inversion_summary", "REPORT_NAME"]
 
-REPORT_NAME = "report.html"
 ANGSTROM = 1e-10
 
 
@@ -65,15 +61,17 @@ def run_invert(args, out) -> int:
     paths = write_inversion_files(run, tables, out_dir, version=__version__, command=command, force=args.force)
     written = [paths["potential"], paths["record"]]
     notes = []
-    if not args.no_report and write_inversion_report is not None:
+    if not args.no_report:
         try:
             written.append(write_inversion_report(run, out_dir, force=args.force))
         except Exception as exc:  # noqa: BLE001 - the report never undoes a finished inversion
             notes.append(f"warning: the report could not be made ({type(exc).__name__}: {exc}); the inversion "
                          "files are written")
     elif planned[REPORT_NAME].exists():  # --force over a run with a report: it describes another inversion
-        planned[REPORT_NAME].unlink()
-        notes.append(f"removed {planned['report']} (of the replaced run)")
+        stale = [planned[REPORT_NAME], *sorted((out_dir / FIGURE_FOLDER).glob("inversion_*"))]
+        for path in stale:
+            path.unlink()
+        notes.append(f"removed {planned[REPORT_NAME]} and its figures (of the replaced run; --no-report)")
     print(format_inversion_summary(run, written), file=out)
     for n in notes:
         print(n, file=out)
