@@ -17,6 +17,7 @@ The main entry points, importable from the top level:
   a :class:`fitkin.plan.PlanResult`.
 * :func:`run_batch` — every job of a batch manifest (``fitkin batch``).
 * :func:`load_interaction` — a fitted unlike pair (``fitkin mix``): mixture μ, k, D12 with bands.
+* :func:`run_inversion` — viscosity (and B(T)) inverted into points of U(r) (``fitkin invert``).
 * :func:`open_library` — the parameter library (SQLite): ``open_library("fits.sqlite")["argon"]``.
 """
 from importlib import import_module
@@ -50,6 +51,7 @@ _LAZY = {
     "read_mixture_table": "fitkin.io.mixture_tables",
     "load_interaction": "fitkin.interaction",
     "FittedInteraction": "fitkin.interaction",
+    "run_inversion": "fitkin.inversion.job",
 }
 
 __all__ = ["__version__", *_LAZY]
