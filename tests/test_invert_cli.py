@@ -156,3 +156,26 @@ def test_user_mistakes_exit_2(tmp_path, capsys, case, words):
     assert code == 2, text
     assert words in text, text
     assert "Traceback" not in text and not (tmp_path / "inv" / "inversion.json").exists()
+
+
+def test_monatomic_conductivity_is_inverted_too(tmp_path, capsys):
+    # SYNTHETIC k of the same exp-6 gas (u = 0.2 %): turned into equivalent viscosities with the
+    # start potential's μ/k ratio (k = 15/4 R/M μ f_k/f_μ) and inverted beside μ, recorded in the file
+    visc, virial = write_tables(tmp_path)
+    Tk = np.geomspace(200.0, 900.0, 5)
+    k = TransportModel(TRUE, order=3).conductivity(Tk, M, SIGMA, EPS)
+    cond = tmp_path / "cond.csv"
+    cond.write_text("# SYNTHETIC data (exp-6 alpha = 15)\nT [K],k [mW/(m K)],u(k) [%]\n"
+                    + "".join(f"{t:.3f},{x * 1e3:.6f},0.2\n" for t, x in zip(Tk, k)), encoding="utf-8")
+    argv = ["invert", visc, virial, cond, "--molar-mass", "39.948 g/mol", "--start", "lj", "--iterations", "1",
+            "--perturbed", "0", "--no-report", "--out", tmp_path / "inv"]
+    code, text = run(argv, capsys)
+    assert code == 2 and "polyatomic" in text and "--monatomic" in text     # not said to be monatomic: refused
+    code, text = run(argv + ["--monatomic"], capsys)
+    assert code == 0, text
+    record = json.loads((tmp_path / "inv" / "inversion.json").read_text(encoding="utf-8"))
+    assert len(record["points"]) == T.size + Tk.size
+    conv = record["inputs"]["conductivity"]
+    mu_true = TransportModel(TRUE, order=3).viscosity(Tk, M, SIGMA, EPS)
+    # the ratio of a Lennard-Jones start differs from the exp-6 truth by well under u(k) = 0.2 %
+    assert np.allclose(conv["equivalent_viscosity_Pa_s"], mu_true, rtol=2e-3)
