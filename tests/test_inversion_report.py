@@ -137,5 +137,5 @@ def test_data_given_out_of_temperature_order_are_matched_point_by_point(run, tmp
 def test_a_single_iteration_says_there_was_no_change_to_test(run, tmp_path):
     one = dataclasses.replace(run, result=dataclasses.replace(run.result, iterations=run.result.iterations[:1]))
     html = _text(write_inversion_report(one, tmp_path))
-    assert "did not converge</b> in 1 iteration:" in html and "no point change to test" in html
+    assert "did not converge</b> in 1 iteration:" in html and "a single iteration gives no change to test" in html
     assert "— (first)" in html

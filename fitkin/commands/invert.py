@@ -24,22 +24,22 @@ def format_inversion_summary(run, written) -> str:
     """The terminal summary: iterations, convergence, σ, ε/k, r_min, probed range, files."""
     res = run.result
     lines = [f"Inversion of {run.gas_name}: start {res.start_description}", "",
-             f"  {'iter':>4} {'rms dev %':>10} {'max |dev|/u':>12} {'point change':>13} {'σ [Å]':>9} {'ε/k [K]':>9}"]
+             f"  {'iter':>4} {'rms dev %':>10} {'max |dev|/u':>12} {'χ²/n':>7} {'point change':>13} {'σ [Å]':>9} "
+             f"{'ε/k [K]':>9}"]
     for it in res.iterations:
         change = "–" if it["point_change"] == float("inf") else f"{it['point_change']:.3f}"
         lines.append(f"  {it['iteration']:>4} {100 * it['rms_relative']:>10.4f} {it['max_normalised']:>12.3f} "
-                     f"{change:>13} {it['sigma'] / ANGSTROM:>9.4f} {it['epsilon_over_k']:>9.3f}")
+                     f"{it['chi2_per_point']:>7.3f} {change:>13} {it['sigma'] / ANGSTROM:>9.4f} "
+                     f"{it['epsilon_over_k']:>9.3f}")
     lines.append("")
     if res.converged:
-        lines.append(f"Converged after {len(res.iterations)} iteration(s).")
+        lines.append(f"Converged after {len(res.iterations)} iteration(s) (χ²/n limit {res.chi2_limit:.3g}).")
     else:
-        last = res.iterations[-1]
-        lines.append(f"warning: not converged after {len(res.iterations)} iteration(s): the points still moved by "
-                     f"{last['point_change']:.3g} of their u and the largest |dev|/u is {last['max_normalised']:.3g}; "
-                     "raise --iterations, or check the data")
+        lines.append(f"warning: not converged after {len(res.iterations)} iteration(s): "
+                     + "; ".join(res.unconverged_reasons()) + "; raise --iterations, or check the data")
     lo, hi = res.probed_range
-    lines += [f"σ = {res.sigma / ANGSTROM:.4f} Å   ε/k = {res.epsilon_over_k:.3f} K   "
-              f"r_min = {res.r_min / ANGSTROM:.4f} Å",
+    lines += [f"σ = {res.sigma / ANGSTROM:.4f} Å   ε/k = {res.epsilon_over_k:.3f} K (u(U) at r_min "
+              f"{res.u_at_minimum:.2g} K)   r_min = {res.r_min / ANGSTROM:.4f} Å",
               f"Probed by the data: r = {lo / ANGSTROM:.3f} to {hi / ANGSTROM:.3f} Å (outside: extrapolated)"]
     lines += [f"warning: {w}" for w in run.options.get("warnings", ())]
     lines += [f"Written: {p}" for p in written]

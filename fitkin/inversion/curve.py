@@ -225,10 +225,13 @@ class CurveFit:
     jacobian: np.ndarray
     success: bool
     message: str
+    #: None, or (centre, width) in K of the well-depth constraint, whose row is the Jacobian's last.
+    epsilon_prior: tuple | None = None
 
 
 def fit_curve(r_points, energy_points, u_fit, start: CurveParameters, *, r_join: float,
-              sigma_scale: float, virial=None, c6_prior: float | None = None) -> CurveFit:
+              sigma_scale: float, virial=None, c6_prior: float | None = None,
+              epsilon_prior: tuple | None = None) -> CurveFit:
     """Least-squares MLR curve through inverted points (and B(T) data).
 
     Parameters
@@ -242,6 +245,10 @@ def fit_curve(r_points, energy_points, u_fit, start: CurveParameters, *, r_join:
     r_join, sigma_scale : see :class:`SmoothCurve`.
     virial : None or (T [K], B [m³/mol], u(B) [m³/mol]).
     c6_prior : K m⁶, centre of the weak ln C6 prior (default: ``start.c6``).
+    epsilon_prior : None, or (centre, width) in K: a Gaussian constraint on the well depth ε/k,
+        for data that do not fix the well (viscosity without B(T)); its residual is the last
+        row of the Jacobian and, unlike the C6 and β priors, it is a measurement-like input
+        whose uncertainty propagates (:func:`fitkin.inversion.spread.curve_uncertainty`).
 
     Returns
     -------
@@ -267,6 +274,8 @@ def fit_curve(r_points, energy_points, u_fit, start: CurveParameters, *, r_join:
             parts.append((curve.second_virial(virial[0]) - virial[1]) / virial[2])
         parts.append([(x[2] - ln_c6_prior) / C6_PRIOR_WIDTH])
         parts.append((x[4:] - 0.0) / BETA_RIDGE_WIDTH)
+        if epsilon_prior is not None:
+            parts.append([(x[0] - epsilon_prior[0]) / epsilon_prior[1]])
         res = np.concatenate([np.ravel(q) for q in parts])
         return np.where(np.isfinite(res), res, 1e6)
 
@@ -278,7 +287,8 @@ def fit_curve(r_points, energy_points, u_fit, start: CurveParameters, *, r_join:
     if not np.all(np.isfinite(out.x)):
         raise FitError("the smooth curve through the inverted points could not be fitted (no finite optimum)")
     curve = SmoothCurve(CurveParameters.from_vector(out.x), r_join, sigma_scale)
-    return CurveFit(curve=curve, jacobian=np.asarray(out.jac), success=bool(out.success), message=str(out.message))
+    return CurveFit(curve=curve, jacobian=np.asarray(out.jac), success=bool(out.success), message=str(out.message),
+                    epsilon_prior=None if epsilon_prior is None else (float(epsilon_prior[0]), float(epsilon_prior[1])))
 
 
 def tabulate_curve(curve: SmoothCurve, energy_top: float, points: int = 300, source: str = "inversion"):

@@ -31,7 +31,7 @@ from fitkin.inversion.run import InversionRun, ParametricCurve
 from fitkin.species import Gas
 from fitkin.theory.transport import TransportModel
 
-__all__ = ["run_inversion", "PARAMETRIC_SHAPES", "MIN_POINTS", "MIN_TEMPERATURE_RATIO", "DEFAULT_PERTURBED"]
+__all__ = ["run_inversion", "well_constraint", "FALLBACK_WELL_WIDTH", "PARAMETRIC_SHAPES", "MIN_POINTS", "MIN_TEMPERATURE_RATIO", "DEFAULT_PERTURBED"]
 
 #: The parametric fits made beside every inversion: (start name, fit choice, label).
 PARAMETRIC_SHAPES = (("lj", "lj", "Lennard-Jones 12-6"), ("mie", "mie", "Mie n-6"), ("exp6", "exp6", "exp-6"))
@@ -40,6 +40,8 @@ MIN_POINTS = 4
 #: The data must span at least this ratio T_max/T_min, so that the points spread along r
 #: (a choice of this module: below it every point sits at nearly the same separation).
 MIN_TEMPERATURE_RATIO = 1.5
+#: Width of the well-depth constraint, as a fraction of ε, when nothing else sizes it.
+FALLBACK_WELL_WIDTH = 0.10
 #: Default number of perturbed data sets (measured: 0.1–0.4 s each on 20 points and 12 B(T)).
 DEFAULT_PERTURBED = 20
 
@@ -106,15 +108,48 @@ def _parametric(data: FitData, gas: Gas):
         potential = with_shape(choice.potential, **shape)
         text = label if not shape else f"{label} ({', '.join(f'{k} = {v:.2f}' for k, v in shape.items())})"
         fits[name] = (text, potential, res.value("sigma") * 1e-10, res.value("epsilon_over_k"),
-                      information_criteria(res)[0])
+                      information_criteria(res)[0], res.stderr("epsilon_over_k"))
     return fits, problems
 
 
 def _start_from_file(path):
+    """(potential, σ, ε/k) of a saved fit and its u(ε/k) (None when the file has none)."""
     fitted = load_parameters(path)
     theta = {k: v["value"] for k, v in fitted.record["parameters"].items()}
     potential = fitted.forward_model.transport(theta).potential
-    return potential, fitted.sigma, fitted.epsilon_over_k
+    return (potential, fitted.sigma, fitted.epsilon_over_k), fitted.record["parameters"]["epsilon_over_k"].get("stderr")
+
+
+def _finite_positive(value) -> bool:
+    return value is not None and bool(np.isfinite(value)) and value > 0
+
+
+def well_constraint(start_epsilon: float, start_u, fitted_epsilons) -> tuple[float, float, str]:
+    """(centre, width, how) in K of the well-depth constraint used without B(T).
+
+    Viscosity fixes the wall and the separations the data probe but hardly the depth of the
+    well: left free, the depth drifts under iteration (the bundled krypton demo went from
+    165 K to 309 K, the data made with 178 K).  The constraint is the start fit's ε/k, with
+    a width of the larger of its standard error and half the spread of the Lennard-Jones,
+    Mie and exp-6 fits' ε/k (how much the depth depends on the assumed form); without
+    either, :data:`FALLBACK_WELL_WIDTH` of ε (a choice of this module).
+
+    >>> c, w, how = well_constraint(165.2, 14.1, [179.5, 142.3, 165.2])
+    >>> c, round(w, 1), how.split(":")[0]
+    (165.2, 18.6, 'half the spread of the parametric fits')
+    """
+    spread = 0.0
+    eps = [float(e) for e in fitted_epsilons if _finite_positive(e)]
+    if len(eps) > 1:
+        spread = 0.5 * (max(eps) - min(eps))
+    u = float(start_u) if _finite_positive(start_u) else 0.0
+    if spread <= 0.0 and u <= 0.0:
+        return float(start_epsilon), FALLBACK_WELL_WIDTH * float(start_epsilon), \
+            f"{100 * FALLBACK_WELL_WIDTH:g} % of ε/k (no standard error and no other fits to size it)"
+    if spread >= u:
+        return float(start_epsilon), spread, (f"half the spread of the parametric fits: ε/k from "
+                                              f"{min(eps):.1f} to {max(eps):.1f} K")
+    return float(start_epsilon), u, "the start fit's standard error of ε/k"
 
 
 def _viscosity_points(data, conductivity, start, molar_mass):
@@ -131,7 +166,7 @@ def _viscosity_points(data, conductivity, start, molar_mass):
 
 def run_inversion(tables, gas=None, *, formula=None, molar_mass=None, start="best", max_iterations=10,
                   tolerance=None, perturbed_sets=DEFAULT_PERTURBED, seed=20261203, quantum_virial=False,
-                  options: dict | None = None) -> InversionRun:
+                  well_prior="start", options: dict | None = None) -> InversionRun:
     """Invert the viscosity (with B(T) and monatomic k) of ``tables`` into U(r).
 
     Parameters
@@ -142,17 +177,23 @@ def run_inversion(tables, gas=None, *, formula=None, molar_mass=None, start="bes
         "exp6", or the path of a parameter file of an earlier fit.
     max_iterations, tolerance, perturbed_sets, seed, quantum_virial : of
         :func:`~fitkin.inversion.iterate.invert_viscosity`.
+    well_prior : without B(T) data, "start" (default) holds the well depth to the start fit's
+        ε/k with the width of :func:`well_constraint`, and says so in the warnings; None leaves
+        it free (it then depends on the curve's form and may drift).  Ignored with B(T).
     options : extra entries recorded in ``InversionRun.options`` (e.g. the command line).
 
     Returns
     -------
-    :class:`~fitkin.inversion.run.InversionRun`; ``options["warnings"]`` lists fits that failed.
+    :class:`~fitkin.inversion.run.InversionRun`; ``options["warnings"]`` lists fits that failed
+    and, without B(T), how the well depth was held.
 
     Raises
     ------
     FitError : no viscosity, too few points, a T range that cannot be inverted, refused kinds,
         an unknown start; ParameterFileError : a start file that cannot be read.
     """
+    if well_prior not in ("start", None):
+        raise FitError(f"well_prior must be 'start' or None, got {well_prior!r}")
     gas = _gas(gas, formula, molar_mass)
     data = _inputs(list(tables), gas)
     M = gas.molar_mass
@@ -163,18 +204,30 @@ def run_inversion(tables, gas=None, *, formula=None, molar_mass=None, start="bes
         if pick not in fits:
             raise FitError(f"the {pick} fit to start from failed: {'; '.join(warnings)}")
         start_potential = fits[pick][1:4]
-        start_label = fits[pick][0]
+        start_label, start_u = fits[pick][0], fits[pick][5]
     else:
         if not Path(start_name).is_file():
             raise FitError(f"--start {start_name}: no such parameter file; give lj, mie, exp6, best or the "
                            "parameters.json of an earlier fitkin fit")
-        pick, start_potential, start_label = None, _start_from_file(start_name), f"parameter file {start_name}"
+        (start_potential, start_u), pick = _start_from_file(start_name), None
+        start_label = f"parameter file {start_name}"
+    virial = _arrays(data, "second_virial")
+    well = None
+    if virial is None and well_prior == "start":
+        centre, width, how = well_constraint(start_potential[2], start_u, [f[3] for f in fits.values()])
+        well = (centre, width)
+        warnings.append(f"viscosity alone does not fix the depth of the well: ε/k was held to {centre:.1f} ± "
+                        f"{width:.1f} K (the start, {start_label}; width: {how}); add second virial "
+                        "coefficients B(T) (a column such as 'B [cm3/mol]') to determine it")
+    elif virial is None:
+        warnings.append("viscosity alone does not fix the depth of the well, and it was left free "
+                        "(well_prior=None): the depth is set by the curve's form, not by the data")
     conductivity = _arrays(data, "conductivity")
     points, equivalent = _viscosity_points(data, conductivity, start_potential, M)
     try:
-        result = invert_viscosity(*points, molar_mass=M, start=start_potential, virial=_arrays(data, "second_virial"),
+        result = invert_viscosity(*points, molar_mass=M, start=start_potential, virial=virial,
                                   max_iterations=max_iterations, tolerance=tolerance, perturbed_sets=perturbed_sets,
-                                  seed=seed, quantum_virial=quantum_virial)
+                                  seed=seed, quantum_virial=quantum_virial, well_prior=well)
     except OutOfRangeError as exc:
         raise FitError(f"the temperatures {points[0].min():g}–{points[0].max():g} K cannot be inverted with this "
                        f"potential's collision integrals ({exc})") from None
@@ -186,7 +239,10 @@ def run_inversion(tables, gas=None, *, formula=None, molar_mass=None, start="bes
                    for n, f in fits.items())
     recorded = {"start": start_name, "start_label": start_label, "max_iterations": int(max_iterations),
                 "tolerance": tolerance, "perturbed_sets": int(perturbed_sets), "seed": int(seed),
-                "quantum_virial": bool(quantum_virial), "warnings": list(warnings), **(options or {})}
+                "quantum_virial": bool(quantum_virial), "warnings": list(warnings),
+                "well_prior": None if well is None else {"epsilon_over_k_K": well[0], "width_K": well[1],
+                                                         "from": start_label},
+                **(options or {})}
     if conductivity is not None:
         recorded["conductivity"] = {"T_K": conductivity[0].tolist(), "conductivity_W_per_m_K": conductivity[1].tolist(),
                                     "u_conductivity": conductivity[2].tolist(),
@@ -194,5 +250,5 @@ def run_inversion(tables, gas=None, *, formula=None, molar_mass=None, start="bes
                                     "u_equivalent_viscosity_Pa_s": equivalent[1].tolist(),
                                     "ratio_from": f"the start potential ({start_label}), Sonine order {SONINE_ORDER}"}
     return InversionRun(gas_name=gas.name, molar_mass=M, result=result, viscosity=visc,
-                        virial=_arrays(data, "second_virial"), parametric=curves,
+                        virial=virial, parametric=curves,
                         sources=tuple(str(t.path) for t in tables), options=recorded)

@@ -65,6 +65,8 @@ def curve_uncertainty(fit, r, u_point, u_fit, virial) -> np.ndarray:
     d = np.zeros(J.shape[0])
     d[:n_pts] = (np.asarray(u_point) / np.asarray(u_fit)) ** 2
     d[n_pts:n_pts + n_vir] = 1.0
+    if fit.epsilon_prior is not None:
+        d[-1] = 1.0
     A = np.linalg.pinv(J.T @ J) @ J.T
     cov = (A * d) @ A.T
     g = _parameter_gradient(fit.curve, np.asarray(r, dtype=float))
@@ -74,7 +76,8 @@ def curve_uncertainty(fit, r, u_point, u_fit, virial) -> np.ndarray:
 def perturbed_spread(model, table, fit, T, mu, u_mu, molar_mass, virial, points, u_fit, sets: int,
                      seed: int, c6_prior: float) -> np.ndarray:
     """Standard deviation (K) over ``sets`` perturbed data sets of the refitted curve at the
-    nominal r̄_i, each set inverted with the final curve's collision integrals."""
+    nominal r̄_i, each set inverted with the final curve's collision integrals (a well-depth
+    constraint's centre is drawn from its width like a datum)."""
     rng = np.random.default_rng(seed)
     eps = fit.curve.params.epsilon_over_k
     energies = point_energies(model, T, (EPSILON_STEP[0] * eps, EPSILON_STEP[1] * eps))
@@ -84,8 +87,13 @@ def perturbed_spread(model, table, fit, T, mu, u_mu, molar_mass, virial, points,
         vir_s = None
         if virial is not None:
             vir_s = (virial[0], virial[1] + virial[2] * rng.standard_normal(virial[0].size), virial[2])
+        prior_s = None
+        if fit.epsilon_prior is not None:
+            centre, width = fit.epsilon_prior
+            prior_s = (centre + width * rng.standard_normal(), width)
         pts = invert_points(model, table.sigma, table.epsilon_over_k, T, mu_s, molar_mass)
         refit = fit_curve(pts.r, energies, u_fit, fit.curve.params, r_join=fit.curve.r_join,
-                          sigma_scale=fit.curve.sigma_scale, virial=vir_s, c6_prior=c6_prior)
+                          sigma_scale=fit.curve.sigma_scale, virial=vir_s, c6_prior=c6_prior,
+                          epsilon_prior=prior_s)
         values[s] = refit.curve.energy(points.r)
     return np.std(values, axis=0, ddof=1) if sets > 1 else np.zeros(points.r.size)

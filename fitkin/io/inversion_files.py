@@ -66,8 +66,11 @@ def inversion_record(run, tables, *, version: str, command: str | None) -> dict:
                             for c in run.parametric],
         "iterations": list(res.iterations),
         "converged": bool(res.converged),
+        "chi2_per_point_limit": res.chi2_limit,
         "result": {"sigma_angstrom": res.sigma / ANGSTROM, "epsilon_over_k_K": res.epsilon_over_k,
-                   "r_min_angstrom": res.r_min / ANGSTROM},
+                   "u_U_at_r_min_K": res.u_at_minimum, "r_min_angstrom": res.r_min / ANGSTROM,
+                   "well_depth": ("held to the start fit by a constraint (no B(T) data)" if res.well_prior
+                                  else "from the data")},
         "points": _points(res),
         "probed_range_angstrom": [lo / ANGSTROM, hi / ANGSTROM],
         "extrapolated": {"inside_angstrom": lo / ANGSTROM, "outside_angstrom": hi / ANGSTROM,

@@ -20,7 +20,6 @@ from matplotlib.patches import Patch
 from matplotlib.ticker import FuncFormatter, NullFormatter
 
 from ..errors import FitkinError
-from ..inversion.iterate import DEFAULT_TOLERANCE
 from ..inversion.run import InversionRun
 from ..theory.virial import second_virial
 from . import style as st
@@ -313,20 +312,26 @@ def uncertainty_figure(run: InversionRun) -> Figure:
 
 
 def iteration_figure(run: InversionRun) -> Figure:
-    """Per iteration: the largest |predicted − measured|/u of μ and the largest point change."""
-    its = run.result.iterations
+    """Per iteration the three convergence criteria: χ²/n of μ, the largest point change and the
+    largest change of a predicted μ, with their limits."""
+    res = run.result
+    its = res.iterations
     k = np.array([it["iteration"] for it in its], dtype=float)
     fig, ax = _single(2.9, 5.6)
-    dev = np.array([it["max_normalised"] for it in its], dtype=float)
+    chi2 = np.array([it.get("chi2_per_point", np.nan) for it in its], dtype=float)
     change = np.array([it["point_change"] for it in its], dtype=float)
-    ax.plot(k, dev, marker="o", ms=4.5, color=st.FIT, lw=1.2, label="largest |pred. − meas.|/u of μ")
+    moved = np.array([it.get("prediction_change", np.nan) for it in its], dtype=float)
+    ax.plot(k, chi2, marker="o", ms=4.5, color=st.FIT, lw=1.2, label="χ²/n of μ")
     finite = np.isfinite(change)
     ax.plot(k[finite], change[finite], marker="s", ms=4.5, color=_PERTURBED, lw=1.2,
             label="largest point change / its u")
-    tol = float(run.options.get("tolerance") or DEFAULT_TOLERANCE)
-    ax.axhline(1.0, color=st.FIT, lw=0.7, ls=":")
+    shown = np.isfinite(moved)
+    ax.plot(k[shown], moved[shown], marker="^", ms=4.5, color=st.MUTED, lw=1.0, ls="--",
+            label="largest change of a predicted μ / u")
+    tol, limit = res.tolerance, res.chi2_limit
+    ax.axhline(limit, color=st.FIT, lw=0.7, ls=":")
     ax.axhline(tol, color=_PERTURBED, lw=0.7, ls=":")
-    values = np.concatenate([dev, change[finite], [1.0, tol]])
+    values = np.concatenate([chi2, change[finite], moved[shown], [limit, tol]])
     values = values[np.isfinite(values) & (values > 0)]
     if values.size and values.max() / values.min() > 20:
         ax.set_yscale("log")
@@ -335,5 +340,6 @@ def iteration_figure(run: InversionRun) -> Figure:
     ax.set_xticks(k)
     ax.set_xlabel("iteration")
     ax.set_ylabel("criterion")
-    ax.legend(fontsize=7.5, frameon=False, loc="best", title=f"dotted: limits 1 and {tol:g}", title_fontsize=7.5)
+    ax.legend(fontsize=7.5, frameon=False, loc="best", title=f"dotted: limits {limit:.3g} (χ²/n) and {tol:g}",
+              title_fontsize=7.5)
     return fig

@@ -11,13 +11,13 @@ from html import escape
 
 import numpy as np
 
-from ..inversion.iterate import DEFAULT_TOLERANCE
+from ..inversion.iterate import DEFAULT_TOLERANCE, REPRODUCTION_LEVEL
 from ..inversion.run import InversionRun
 from .inversion_figures import ANGSTROM, measured_viscosity, reproductions
 from .sections import Section, sci, table
 
 __all__ = ["summary_section", "points_section", "reproduction_table", "iterations_section", "curve_section",
-           "provenance_section", "verdict", "tolerance_of"]
+           "provenance_section", "verdict"]
 
 
 def _length(r: float) -> str:
@@ -26,17 +26,6 @@ def _length(r: float) -> str:
 
 def _g(x, digits: int = 3) -> str:
     return "—" if x is None or not np.isfinite(x) else f"{x:.{digits}g}"
-
-
-def tolerance_of(run: InversionRun) -> float:
-    """The point-change tolerance the run used (its options, else the default)."""
-    tol = run.options.get("tolerance") if isinstance(run.options, dict) else None
-    return float(DEFAULT_TOLERANCE if tol is None else tol)
-
-
-def _u_at_minimum(run: InversionRun) -> float:
-    res = run.result
-    return float(np.interp(res.r_min, res.curve_r, res.curve_u))
 
 
 def _cards(cards) -> str:
@@ -51,23 +40,38 @@ def verdict(run: InversionRun) -> str:
     its = res.iterations
     n = len(its)
     last = its[-1] if its else {}
-    tol = tolerance_of(run)
+    tol = res.tolerance
     dev = last.get("max_normalised", float("nan"))
+    chi2 = last.get("chi2_per_point", float("nan"))
+    limit = res.chi2_limit
     change = last.get("point_change", float("nan"))
     if res.converged:
         return (f'<b class="ok">The iteration converged</b> after {n} iteration{"s" if n != 1 else ""}: between the '
-                f"last two, no point moved by more than {tol:g} of its uncertainty (largest {_g(change)}), and the "
-                f"curve reproduces every viscosity within its u (largest |predicted − measured|/u = {_g(dev)}).")
-    reasons = []
-    if not (np.isfinite(change) and change < tol):
-        reasons.append(f"the points still moved by up to {_g(change)} of their uncertainty in the last iteration "
-                       f"(limit {tol:g})" if np.isfinite(change) else
-                       "a single iteration gives no point change to test")
-    if not dev <= 1.0:
-        reasons.append(f"the curve misses a viscosity by {_g(dev)} u (limit 1)")
+                f"last two, no point moved by more than {tol:g} of its uncertainty (largest {_g(change)}) nor any "
+                f"predicted viscosity by more than {tol:g} u, and the "
+                f"curve reproduces the viscosities within their u (χ²/n = {_g(chi2)}, at most {_g(limit)} at the "
+                f"{100 * REPRODUCTION_LEVEL:g} % level; largest |predicted − measured|/u = {_g(dev)}).")
+    reasons = [escape(r) for r in res.unconverged_reasons()]
     return (f'<b class="warn">The iteration did not converge</b> in {n} iteration{"s" if n != 1 else ""}: '
             + "; ".join(reasons) + ". What this report shows is the last iterate, not a converged potential: "
             "do not use it as a result. Run more iterations, or check the data and their uncertainties.")
+
+
+def _well_card(run: InversionRun):
+    res = run.result
+    u_min = f"curve's linearised u(U) at r_min: {_g(res.u_at_minimum, 2)} K"
+    if res.well_prior is None:
+        return ("ε/k (well depth)", f"{res.epsilon_over_k:.3f} K", u_min)
+    centre, width = res.well_prior
+    return ("ε/k (well depth)", f"{res.epsilon_over_k:.3f} K",
+            f"held to {centre:.1f} ± {width:.1f} K: viscosity alone does not fix it; {u_min}")
+
+
+def _warnings(run: InversionRun) -> str:
+    items = run.options.get("warnings") if isinstance(run.options, dict) else None
+    if not items:
+        return ""
+    return '<ul class="warnings">' + "".join(f"<li>{escape(str(w))}</li>" for w in items) + "</ul>"
 
 
 def summary_section(run: InversionRun) -> Section:
@@ -80,8 +84,7 @@ def summary_section(run: InversionRun) -> Section:
     tail = res.tail or {}
     c6 = tail.get("C6_K_m6")
     cards = [("σ (zero crossing)", _length(res.sigma), "of the inverted curve"),
-             ("ε/k (well depth)", f"{res.epsilon_over_k:.3f} K",
-              f"curve's linearised u(U) at r_min: {_g(_u_at_minimum(run), 2)} K"),
+             _well_card(run),
              ("r_min (well minimum)", _length(res.r_min), f"r_min/σ = {res.r_min / res.sigma:.4f}"),
              ("probed range", f"{lo / ANGSTROM:.3f}–{hi / ANGSTROM:.3f} Å",
               f"{lo / res.sigma:.3f}–{hi / res.sigma:.3f} σ, from {T.size} viscosity points "
@@ -99,7 +102,7 @@ def summary_section(run: InversionRun) -> Section:
         cards.append(("B(T) reproduced", f"rms {np.sqrt(np.mean(zb ** 2)):.3g} u(B)",
                       f"{tb.size} points at {tb.min():.4g}–{tb.max():.4g} K"
                       + ("; quantum-corrected" if res.quantum_virial else "")))
-    html = _cards(cards) + f'<p class="verdict">{verdict(run)}</p>'
+    html = _cards(cards) + f'<p class="verdict">{verdict(run)}</p>' + _warnings(run)
     html += ('<p class="small">Only the probed range is determined by the data. The inner wall and everything '
              "beyond the outermost point are extrapolations of the fitted form: read the Caution at the end before "
              "using any part of the curve, or a property computed from it, in design.</p>")
@@ -165,21 +168,28 @@ def iterations_section(run: InversionRun) -> Section:
     """One row per iteration: residuals, point change, σ, ε/k; then the verdict again."""
     res = run.result
     has_b = any("virial_rms_normalised" in it for it in res.iterations)
-    header = ["iteration", "μ: rms (pred. − meas.)/meas. [%]", "μ: largest |pred. − meas.|/u",
-              "largest point change / u", "σ [Å]", "ε/k [K]"] + (["B: rms (pred. − meas.)/u(B)"] if has_b else [])
+    header = ["iteration", "μ: rms (pred. − meas.)/meas. [%]", "μ: largest |pred. − meas.|/u", "μ: χ²/n",
+              "largest point change / u", "largest change of predicted μ / u", "σ [Å]", "ε/k [K]"] + (
+        ["B: rms (pred. − meas.)/u(B)"] if has_b else [])
     rows = []
     for it in res.iterations:
         change = it.get("point_change", float("nan"))
+        moved = it.get("prediction_change", float("nan"))
         row = [it["iteration"], f"{100 * it['rms_relative']:.3g}", f"{it['max_normalised']:.3g}",
-               "— (first)" if not np.isfinite(change) else f"{change:.3g}", f"{it['sigma'] / ANGSTROM:.4f}",
+               _g(it.get("chi2_per_point")),
+               "— (first)" if not np.isfinite(change) else f"{change:.3g}",
+               "— (first)" if not np.isfinite(moved) else f"{moved:.3g}", f"{it['sigma'] / ANGSTROM:.4f}",
                f"{it['epsilon_over_k']:.3f}"]
         if has_b:
             row.append(_g(it.get("virial_rms_normalised")))
         rows.append(row)
     html = f'<p class="verdict">{verdict(run)}</p>' + table(header, rows)
-    html += (f'<p class="small">Converged means: no point moved by more than {tolerance_of(run):g} of the '
-             "uncertainty it is weighted with between two iterations, and every viscosity is reproduced within "
-             "its u. The point change is undefined for the first iteration.</p>")
+    html += (f'<p class="small">Converged means: between two iterations no point moved by more than '
+             f"{res.tolerance:g} of the uncertainty it is weighted with and no predicted viscosity by more than "
+             f"{res.tolerance:g} of its u (the iteration has reached its fixed point), and the viscosities are "
+             f"reproduced within their u: χ²/n at most {_g(res.chi2_limit)}, the {100 * REPRODUCTION_LEVEL:g} % "
+             "quantile of χ² for this many points (measured values scatter, so a single point may miss by more "
+             "than u). The changes are undefined for the first iteration.</p>")
     return Section("iterations", "Iterations", html)
 
 
