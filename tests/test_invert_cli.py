@@ -56,6 +56,10 @@ def test_files_and_record(inverted):
     assert record["options"]["perturbed_sets"] == 5 and record["provenance"]["seed"] == 20261203
     assert {c["label"].split(" ")[0] for c in record["parametric_fits"]} == {"Lennard-Jones", "Mie", "exp-6"}
     assert sum(c["is_start"] for c in record["parametric_fits"]) == 1
+    # B(T) fixes the well: no constraint on its depth is applied or reported
+    assert record["options"]["well_prior"] is None
+    assert not any("depth of the well" in w for w in record["warnings"])
+    assert "B(T)" in record["result"]["well_depth"]
     # exp-6 data: the exp-6 fit has the lowest AIC and starts the iteration
     assert record["start"]["description"].startswith("given: exp-6")
     assert 1 <= len(record["iterations"]) <= 3 and record["converged"] is True

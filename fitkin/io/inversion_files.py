@@ -36,6 +36,15 @@ def potential_csv(run) -> str:
     return "\n".join(head + rows) + "\n"
 
 
+def _well_depth(res) -> str:
+    """How the depth of the well was determined, in words."""
+    if res.predicted_virial is not None:
+        return "from the data, with the second virial coefficients B(T)"
+    if res.well_prior:
+        return "held to the start fit by a constraint (no B(T) data)"
+    return "free: set by the form of the curve (no B(T) data, no constraint)"
+
+
 def _points(res) -> list[dict]:
     spread = res.u_energy_perturbed
     return [{"T_K": float(t), "r_angstrom": float(r / ANGSTROM), "U_over_k_K": float(u),
@@ -69,8 +78,7 @@ def inversion_record(run, tables, *, version: str, command: str | None) -> dict:
         "chi2_per_point_limit": res.chi2_limit,
         "result": {"sigma_angstrom": res.sigma / ANGSTROM, "epsilon_over_k_K": res.epsilon_over_k,
                    "u_U_at_r_min_K": res.u_at_minimum, "r_min_angstrom": res.r_min / ANGSTROM,
-                   "well_depth": ("held to the start fit by a constraint (no B(T) data)" if res.well_prior
-                                  else "from the data")},
+                   "well_depth": _well_depth(res)},
         "points": _points(res),
         "probed_range_angstrom": [lo / ANGSTROM, hi / ANGSTROM],
         "extrapolated": {"inside_angstrom": lo / ANGSTROM, "outside_angstrom": hi / ANGSTROM,
