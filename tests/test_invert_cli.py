@@ -183,3 +183,31 @@ def test_monatomic_conductivity_is_inverted_too(tmp_path, capsys):
     mu_true = TransportModel(TRUE, order=3).viscosity(Tk, M, SIGMA, EPS)
     # the ratio of a Lennard-Jones start differs from the exp-6 truth by well under u(k) = 0.2 %
     assert np.allclose(conv["equivalent_viscosity_Pa_s"], mu_true, rtol=2e-3)
+
+
+def test_gas_file_sheet_pressure_and_free_well(tmp_path, capsys):
+    # the table options shared with fitkin fit (--sheet, --pressure), a gas file, and --free-well:
+    # SYNTHETIC viscosity only (no B(T)), the depth of the well not held to the start
+    import pandas as pd
+    mu = TransportModel(TRUE, order=3).viscosity(T, M, SIGMA, EPS)
+    book = tmp_path / "visc.xlsx"
+    with pd.ExcelWriter(book) as writer:
+        pd.DataFrame({"note": ["SYNTHETIC data (exp-6 alpha = 15)"]}).to_excel(writer, sheet_name="about",
+                                                                                 index=False)
+        pd.DataFrame({"T [K]": T, "viscosity [uPa s]": mu * 1e6,
+                      "u(viscosity) [%]": 0.1}).to_excel(writer, sheet_name="mu", index=False)
+    gas = tmp_path / "gas.toml"
+    gas.write_text('name = "synthetic argon-like gas"\nformula = "Ar"\n', encoding="utf-8")
+    out = tmp_path / "inv"
+    code, text = run(["invert", book, "--sheet", "mu", "--gas", gas, "--pressure", "5 MPa", "--free-well",
+                      "--start", "lj", "--iterations", "2", "--perturbed", "0", "--no-report", "--out", out], capsys)
+    assert code == 0, text
+    assert "left free as asked" in text and "held to" not in text
+    record = json.loads((out / "inversion.json").read_text(encoding="utf-8"))
+    assert record["gas"]["name"] == "synthetic argon-like gas"
+    assert record["gas"]["molar_mass_kg_per_mol"] == pytest.approx(M, rel=1e-9)
+    assert record["options"]["well_prior"] is None
+    assert record["result"]["well_depth"].startswith("free")
+    # without --sheet the first worksheet (the note) has no viscosity column: a user mistake, exit 2
+    code, text = run(["invert", book, "--gas", gas, "--out", tmp_path / "inv2"], capsys)
+    assert code == 2 and "Traceback" not in text, text

@@ -57,7 +57,7 @@ def run_invert(args, out) -> int:
     command = "fitkin " + " ".join(shlex.quote(a) for a in sys.argv[1:]) if sys.argv[1:] else None
     run = run_inversion(tables, gas_from_args(args), start=args.start, max_iterations=args.iterations,
                         perturbed_sets=args.perturbed, seed=args.seed, quantum_virial=args.quantum_virial,
-                        options={"command": command})
+                        well_prior=None if args.free_well else "start", options={"command": command})
     paths = write_inversion_files(run, tables, out_dir, version=__version__, command=command, force=args.force)
     written = [paths["potential"], paths["record"]]
     notes = []

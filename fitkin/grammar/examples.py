@@ -55,5 +55,6 @@ EPILOG_DEMO = """examples:
 EPILOG_INVERT = """examples:
   fitkin invert argon_visc.csv argon_virial.csv --formula Ar --out inv-argon
   fitkin invert visc.csv --formula Ar --start lj --iterations 5 --perturbed 0 --out inv --force
+  fitkin invert visc.csv --formula Kr --free-well --out inv-free   (no B(T); well depth not held)
   fitkin fit visc.csv --formula Ar --potential inv-argon/potential.csv --out fit-tab   (reuse the curve)
 """

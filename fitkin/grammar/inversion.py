@@ -29,6 +29,9 @@ def add_invert(sub) -> None:
     p.add_argument("--seed", type=int, default=20261203, help="seed of the perturbed sets (default 20261203)")
     p.add_argument("--quantum-virial", action="store_true",
                    help="the B(T) data include quantum effects: remove the first Wigner–Kirkwood term each iteration")
+    p.add_argument("--free-well", action="store_true",
+                   help="without B(T) data, leave the well depth free instead of holding it to the start fit's "
+                        "ε/k (the depth is then set by the curve's form, not by the data)")
     p.add_argument("--out", required=True, metavar="DIR", help="folder for potential.csv, inversion.json, report.html")
     p.add_argument("--force", action="store_true", help="replace this command's earlier outputs in DIR")
     p.add_argument("--no-report", action="store_true", help="do not write DIR/report.html")

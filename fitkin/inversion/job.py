@@ -221,7 +221,7 @@ def run_inversion(tables, gas=None, *, formula=None, molar_mass=None, start="bes
                         "coefficients B(T) (a column such as 'B [cm3/mol]') to determine it")
     elif virial is None:
         warnings.append("viscosity alone does not fix the depth of the well, and it was left free "
-                        "(well_prior=None): the depth is set by the curve's form, not by the data")
+                        "as asked: the depth is set by the curve's form, not by the data")
     conductivity = _arrays(data, "conductivity")
     points, equivalent = _viscosity_points(data, conductivity, start_potential, M)
     try:
