@@ -57,3 +57,26 @@ def test_polar_correction_improves_water_viscosity(water_data):
     polar = fit_least_squares(mu_only, WATER)
     plain = fit_least_squares(mu_only, WATER, polar=False)
     assert polar.chi2 < plain.chi2
+
+
+def test_no_polar_from_the_command_line(tmp_path, capsys):
+    # water viscosity (IAPWS 2008 via CoolProp, as above) fitted by fitkin fit with a gas file that
+    # gives the dipole moment: the Stockmayer correction is on by default, --no-polar switches it off
+    import json
+    from fitkin.cli import main
+    T = np.linspace(380.0, 900.0, 8)
+    mu = [CP.PropsSI("V", "T", t, "P", 100.0, "Water") for t in T]
+    table = tmp_path / "water_visc.csv"
+    table.write_text("T [K],viscosity [uPa s],u(viscosity) [%]\n"
+                     + "".join(f"{t:.2f},{m * 1e6:.5f},1\n" for t, m in zip(T, mu)), encoding="utf-8")
+    gas = tmp_path / "water.toml"
+    gas.write_text('name = "water"\nformula = "H2O"\ndipole_moment = "1.85 D"\n', encoding="utf-8")
+    settings = {}
+    for flag in ([], ["--no-polar"]):
+        out = tmp_path / ("plain" if flag else "polar")
+        code = main(["fit", str(table), "--gas", str(gas), *flag, "--no-report", "--out", str(out)])
+        text = capsys.readouterr()
+        assert code == 0, text
+        record = json.loads((out / "parameters.json").read_text(encoding="utf-8"))
+        settings[bool(flag)] = record["theory"]["polar_correction"]
+    assert settings == {False: True, True: False}
