@@ -105,6 +105,23 @@ def _label(gas: FittedGas, fallback: str) -> str:
     return gas.gas.name or gas.gas.formula or fallback
 
 
+class _OmegaAt:
+    """Ω*(l, s) of one collision type at fixed reduced temperatures: ``(l, s)`` one, ``many(pairs)``
+    several in one look-up; a range error is re-worded by ``message(exc)``."""
+
+    def __init__(self, model, t_star, message):
+        self.model, self.t_star, self.message = model, t_star, message
+
+    def __call__(self, l, s):
+        return self.many(((l, s),))[0].reshape(np.shape(self.t_star))
+
+    def many(self, pairs):
+        try:
+            return self.model.omega_many(tuple(pairs), self.t_star)
+        except OutOfRangeError as exc:
+            raise OutOfRangeError(self.message(exc)) from None
+
+
 class GasPair(PairConductivity):
     """Binary-mixture transport of two fitted gases (gas 1 and gas 2, in that order).
 
@@ -310,22 +327,16 @@ class GasPair(PairConductivity):
         return (first * self._diffusion_factor(T.ravel(), x1.ravel()).reshape(T.shape))[()]
 
     def _mixture_omegas(self, t):
-        """Callables (l, s) → Ω*(l,s) of the collision types "11", "12", "22" at the temperatures t."""
-        pure = [(self._pure_computed[i], t / g.epsilon_over_k, f"pure {self.names[i]}")
-                for i, g in enumerate((self.first, self.second))]
-
-        def pure_omega(i):
-            model, t_star, what = pure[i]
-
-            def omega(l, s):
-                try:
-                    return model.omega(l, s, t_star)
-                except OutOfRangeError as exc:
-                    raise OutOfRangeError(f"pair {self.name}, {what}: {exc}") from None
-            return omega
-        t12 = t / self.epsilon12_over_k
-        return {"11": pure_omega(0), "22": pure_omega(1),
-                "12": lambda l, s: self._omega(self._pair_computed, l, s, t12)}
+        """Callables (l, s) → Ω*(l,s) of the collision types "11", "12", "22" at the temperatures t
+        (each with ``many(pairs)``, the pairs in one table look-up)."""
+        def pure(i):
+            return _OmegaAt(self._pure_computed[i], t / (self.first, self.second)[i].epsilon_over_k,
+                            lambda exc: f"pair {self.name}, pure {self.names[i]}: {exc}")
+        lo, hi = (v * self.epsilon12_over_k for v in self._pair_computed.t_star_range)
+        unlike = _OmegaAt(self._pair_computed, t / self.epsilon12_over_k,
+                          lambda exc: f"pair {self.name} (ε12/k = {self.epsilon12_over_k:.4g} K): {exc}; "
+                                      f"the unlike pair is covered for {lo:.4g} K ≤ T ≤ {hi:.4g} K")
+        return {"11": pure(0), "22": pure(1), "12": unlike}
 
     def _diffusion_factor(self, t, x1):
         """[D12]/[D12]_1 at flat arrays t, x1 in the pair's approximation."""
@@ -334,8 +345,9 @@ class GasPair(PairConductivity):
         om = self._mixture_omegas(t)
         if self.approximation == "sonine":
             return mixture_orders.sonine_diffusion_factor(self.order, x1, M1, M2, s1, s2, self.sigma12, om)
+        unlike = om["12"].many(((1, 1), (1, 2), (2, 2)))
         return mixture_orders.kihara_diffusion_factor(x1, M1, M2, s1, s2, self.sigma12, om["11"](2, 2),
-                                                      om["22"](2, 2), om["12"](1, 1), om["12"](1, 2), om["12"](2, 2))
+                                                      om["22"](2, 2), *unlike)
 
     def interaction_viscosity(self, T):
         """μ12(T) in Pa s, at the pair's Sonine order (see the module text)."""

@@ -302,6 +302,12 @@ def test_bad_inputs():
     # the default (Kihara) names the pair and the range of its computed collision integrals
     with pytest.raises(OutOfRangeError, match="Ar–He"):
         GasPair(AR, HE).viscosity(1e7, 0.5)
+    # which collision type ran out is said: a pure gas (Ar: T* = 8e4 beyond the computed 2000) ...
+    with pytest.raises(OutOfRangeError, match="Ar–He, pure Ar: reduced temperature"):
+        GasPair(AR, HE).viscosity(1e7, 0.5)
+    # ... or the unlike pair, with the temperatures it covers (ε12/k = 5 K: T*12 = 4000 at 20000 K)
+    with pytest.raises(OutOfRangeError, match=r"ε12/k = 5 K\): .*covered for 0\.25 K ≤ T ≤ 1e\+04 K"):
+        GasPair(AR, HE, epsilon12_over_k=5.0).viscosity(20000.0, 0.5)
 
 
 def test_from_files_and_describe(tmp_path):

@@ -250,6 +250,31 @@ def scaling_exponents(problem, order):
     return tuple(out)
 
 
+def _matrix_plan(problem, order, mass_fraction1, kihara):
+    """Per collision type: (type, its (l, s) pairs, their matrices stacked as (P, n·n), the
+    exponents e1, e2 of x1, x2 of every element, the type's factor); cached by the table."""
+    mixture_bracket_table(problem, order, mass_fraction1, kihara)   # checks the arguments
+    return _plan_of(problem, order, round(float(mass_fraction1), 14), bool(kihara))
+
+
+@lru_cache(maxsize=128)
+def _plan_of(problem, order, m1, kihara):
+    table = _table(problem, order, m1, kihara)
+    exps = np.array(scaling_exponents(problem, order))              # (n, 2)
+    plan = []
+    for ctype, entries in table.items():
+        (t1, t2), factor = _TYPE_WEIGHTS[ctype]
+        e1 = t1 + exps[:, None, 0] + exps[None, :, 0]
+        e2 = t2 + exps[:, None, 1] + exps[None, :, 1]
+        used = np.any([m != 0.0 for m in entries.values()], axis=0)
+        if np.any(used & ((e1 < 0) | (e2 < 0))):
+            raise ArithmeticError("a scaled mixture bracket would diverge in a tracer limit")
+        pairs = tuple(entries)
+        stacked = np.stack([entries[pair].ravel() for pair in pairs])
+        plan.append((ctype, pairs, stacked, np.where(used, e1, 0.0), np.where(used, e2, 0.0), factor))
+    return tuple(plan)
+
+
 #: Mole-fraction powers (of x1, x2) and factor of each collision type in the bracket.
 _TYPE_WEIGHTS = {"11": ((2, 0), 0.25), "12": ((1, 1), 0.5), "22": ((0, 2), 0.25)}
 
@@ -269,21 +294,13 @@ def bracket_matrix(problem, order, mass_fraction1, omega, scale, x1, kihara=Fals
     -------
     ndarray (..., n, n).
     """
-    table = mixture_bracket_table(problem, order, mass_fraction1, kihara)
-    exps = np.array(scaling_exponents(problem, order))              # (n, 2)
     x = np.asarray(x1, dtype=float)
     x2 = 1.0 - x
     total = 0.0
-    for ctype, entries in table.items():
-        (t1, t2), factor = _TYPE_WEIGHTS[ctype]
-        e1 = t1 + exps[:, None, 0] + exps[None, :, 0]
-        e2 = t2 + exps[:, None, 1] + exps[None, :, 1]
-        used = np.any([m != 0.0 for m in entries.values()], axis=0)
-        if np.any(used & ((e1 < 0) | (e2 < 0))):
-            raise ArithmeticError("a scaled mixture bracket would diverge in a tracer limit")
-        e1, e2 = np.where(used, e1, 0.0), np.where(used, e2, 0.0)
+    for ctype, pairs, stacked, e1, e2, factor in _matrix_plan(problem, order, mass_fraction1, kihara):
         weight = factor * x[..., None, None] ** e1 * x2[..., None, None] ** e2
-        summed = sum(matrix * np.asarray(omega[ctype][pair], dtype=float)[..., None, None]
-                     for pair, matrix in entries.items())
+        values = np.broadcast_arrays(*(np.asarray(omega[ctype][pair], dtype=float) for pair in pairs))
+        n = math.isqrt(stacked.shape[-1])
+        summed = (np.stack(values, axis=-1) @ stacked).reshape(values[0].shape + (n, n))
         total = total + weight * scale[ctype] * summed
     return np.asarray(total)

@@ -145,14 +145,23 @@ def _omega_values(problem, order, omega, kihara):
     """{ctype: {(l, s): array}} of the Ω* the table needs, from the callables ``omega``."""
     need = required_mixture_pairs(problem, order, kihara)
     try:
-        return {ctype: {pair: omega[ctype](*pair) for pair in pairs} for ctype, pairs in need.items()}
+        return {ctype: _omega_of(omega[ctype], pairs) for ctype, pairs in need.items()}
     except KeyError as exc:
         raise FitkinError(f"collision integrals of type {exc} are missing (need '11', '12', '22')") from None
 
 
+def _omega_of(omega, pairs):
+    """{(l, s): array} from one callable; in one table look-up when it offers ``many(pairs)``."""
+    many = getattr(omega, "many", None)
+    if many is None:
+        return {pair: omega(*pair) for pair in pairs}
+    return dict(zip(pairs, many(pairs)))
+
+
 def _parts(B, s, first):
     """(s₀ᵀ B₀₀⁻¹ s₀, first-order correction, exact s ᵀB⁻¹s) with s nonzero on ``first`` only."""
-    rest = np.setdiff1d(np.arange(B.shape[-1]), first)
+    taken = set(first.tolist())
+    rest = np.array([k for k in range(B.shape[-1]) if k not in taken], dtype=np.intp)
     B00 = B[..., first[:, None], first[None, :]]
     s0 = s[..., first]
     y = np.linalg.solve(B00, s0[..., None])[..., 0]
