@@ -61,7 +61,7 @@ def test_files_and_record(inverted):
     assert not any("depth of the well" in w for w in record["warnings"])
     assert "B(T)" in record["result"]["well_depth"]
     # exp-6 data: the exp-6 fit has the lowest AIC and starts the iteration
-    assert record["start"]["description"].startswith("given: exp-6")
+    assert record["start"]["description"].startswith("the lowest-AIC parametric fit: exp-6")
     assert 1 <= len(record["iterations"]) <= 3 and record["converged"] is True
     assert (out / "report.html").is_file()
     pts = record["points"]
@@ -104,6 +104,7 @@ def test_options_and_force(inverted, capsys):
                       "--out", out], capsys)
     assert code == 0, text
     assert "iter" in text and "σ =" in text and "Probed by the data" in text
+    assert "starting from the Lennard-Jones fit: Lennard-Jones" in text
     assert "removed" in text and not (out / "report.html").exists()     # --no-report --force: the old report goes
     record = json.loads((out / "inversion.json").read_text(encoding="utf-8"))
     assert record["gas"]["name"] == "synthetic-gas" and record["provenance"]["seed"] == 7
@@ -119,9 +120,11 @@ def test_start_from_a_parameter_file(inverted, capsys):
                  "--out", str(folder / "fit-e6")]) == 0
     capsys.readouterr()
     code, text = run(["invert", visc, virial, "--formula", "Ar", "--start", folder / "fit-e6" / "parameters.json",
-                      "--iterations", "1", "--perturbed", "0", "--no-report", "--out", folder / "inv-file"], capsys)
+                      "--iterations", "1", "--perturbed", "0", "--no-report", "--free-well", "--out",
+                      folder / "inv-file"], capsys)
     assert code == 0, text
-    assert "start given: exp-6" in text
+    assert "--free-well (well_prior=None) has no effect with B(T) data" in text   # said, not silently ignored
+    assert f"starting from parameter file {folder / 'fit-e6' / 'parameters.json'}: exp-6" in text
 
 
 @pytest.mark.parametrize("case, words", [

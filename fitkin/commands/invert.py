@@ -23,7 +23,7 @@ ANGSTROM = 1e-10
 def format_inversion_summary(run, written) -> str:
     """The terminal summary: iterations, convergence, σ, ε/k, r_min, probed range, files."""
     res = run.result
-    lines = [f"Inversion of {run.gas_name}: start {res.start_description}", "",
+    lines = [f"Inversion of {run.gas_name}, starting from {res.start_description}", "",
              f"  {'iter':>4} {'rms dev %':>10} {'max |dev|/u':>12} {'χ²/n':>7} {'point change':>13} {'σ [Å]':>9} "
              f"{'ε/k [K]':>9}"]
     for it in res.iterations:

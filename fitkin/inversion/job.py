@@ -15,6 +15,8 @@ polyatomic gas and self-diffusion are refused with a message, never ignored.
 """
 from __future__ import annotations
 
+import dataclasses
+
 from pathlib import Path
 
 import numpy as np
@@ -222,6 +224,9 @@ def run_inversion(tables, gas=None, *, formula=None, molar_mass=None, start="bes
     elif virial is None:
         warnings.append("viscosity alone does not fix the depth of the well, and it was left free "
                         "as asked: the depth is set by the curve's form, not by the data")
+    elif well_prior is None:
+        warnings.append("--free-well (well_prior=None) has no effect with B(T) data: they fix the well depth, "
+                        "which is then never held to the start")
     conductivity = _arrays(data, "conductivity")
     points, equivalent = _viscosity_points(data, conductivity, start_potential, M)
     try:
@@ -231,6 +236,9 @@ def run_inversion(tables, gas=None, *, formula=None, molar_mass=None, start="bes
     except OutOfRangeError as exc:
         raise FitError(f"the temperatures {points[0].min():g}–{points[0].max():g} K cannot be inverted with this "
                        f"potential's collision integrals ({exc})") from None
+    how = {"best": "the lowest-AIC parametric fit", "lj": "the Lennard-Jones fit", "mie": "the Mie fit",
+           "exp6": "the exp-6 fit"}.get(start_name, start_label)
+    result = dataclasses.replace(result, start_description=result.start_description.replace("given", how, 1))
     visc = _arrays(data, "viscosity") or points
     T_visc = visc[0]
     curves = tuple(ParametricCurve(label=f[0], potential=f[1], sigma=f[2], epsilon_over_k=f[3],
