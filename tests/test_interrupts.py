@@ -68,3 +68,39 @@ def test_failed_write_removes_its_temporary_file(tmp_path, monkeypatch, stage):
     with pytest.raises(atomic.OutputError, match="No space left on device"):
         atomic.write_text_atomic(target, "data")
     assert _files(tmp_path) == []
+
+
+def test_ctrl_c_in_an_inversion(tmp_path, capsys, monkeypatch):
+    # during the iteration: nothing is written; between potential.csv and inversion.json: the
+    # line says what is left, no temporary file stays, and the rerun needs --force
+    from fitkin.inversion import iterate
+    table = write_viscosity_table(tmp_path / "visc.csv")
+    argv = ["invert", table, "--formula", "Ar", "--start", "lj", "--iterations", "1", "--perturbed", "0",
+            "--no-report", "--out", tmp_path / "inv"]
+    real_tabulate = iterate.tabulate_curve
+
+    def interrupted(*a, **k):
+        raise KeyboardInterrupt
+    monkeypatch.setattr(iterate, "tabulate_curve", interrupted)    # inside the first iteration
+    code, _, err = run(capsys, *argv)
+    assert code == 130 and "interrupted (Ctrl-C); nothing was written" in err, err
+    assert _files(tmp_path / "inv") == []
+    monkeypatch.setattr(iterate, "tabulate_curve", real_tabulate)
+
+    real_replace = atomic.os.replace
+
+    def stop_at_the_record(src, dst):
+        if str(dst).endswith("inversion.json"):
+            raise KeyboardInterrupt
+        return real_replace(src, dst)
+    monkeypatch.setattr(atomic.os, "replace", stop_at_the_record)
+    code, _, err = run(capsys, *argv)
+    line, = err.strip().splitlines()
+    assert code == 130 and "already written:" in line and "potential.csv" in line and "--force" in line
+    assert _files(tmp_path / "inv") == ["potential.csv"]
+    monkeypatch.setattr(atomic.os, "replace", real_replace)
+    code, _, err = run(capsys, *argv)
+    assert code == 2 and "potential.csv" in err and "--force" in err
+    code, _, err = run(capsys, *argv, "--force")
+    assert code == 0, err
+    assert _files(tmp_path / "inv") == ["inversion.json", "potential.csv"]
