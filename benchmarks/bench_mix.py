@@ -103,8 +103,7 @@ def main() -> None:
         print(f"posterior, {n} points, {len(d.names)} parameters (pure gases marginalised): {pt:.1f} s = "
               f"{pt / POSTERIOR_TARGET_S:.2f} × target ({POSTERIOR_TARGET_S:g} s); {d.walkers} walkers × "
               f"{d.steps} steps, τ_max {float(np.max(d.tau)):.1f}, converged: {d.converged}; "
-              f"{1e3 * pt / d.steps:.1f} ms per ensemble step (the step count varies with the chain: "
-              f"{d.steps} × that per step is the whole)")
+              f"{1e3 * pt / d.steps:.1f} ms per ensemble step (the steps to convergence vary with the chain)")
         print(f"  σ12 = {post.values['sigma12']:.4f} ± {post.stderr['sigma12']:.4f} Å "
               f"(least squares ± {fit.stderr['sigma12']:.4f}), ε12/k = {post.values['epsilon12_over_k']:.2f} ± "
               f"{post.stderr['epsilon12_over_k']:.2f} K (least squares ± {fit.stderr['epsilon12_over_k']:.2f}); "

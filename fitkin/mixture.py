@@ -292,9 +292,13 @@ class GasPair(PairConductivity):
         try:
             return model.omega(l, s, T_star)
         except OutOfRangeError as exc:
-            lo, hi = (v * self.epsilon12_over_k for v in model.t_star_range)
-            raise OutOfRangeError(f"pair {self.name} (ε12/k = {self.epsilon12_over_k:.4g} K): {exc}; "
-                                  f"the unlike pair is covered for {lo:.4g} K ≤ T ≤ {hi:.4g} K") from None
+            raise OutOfRangeError(self._unlike_range_message(model, exc)) from None
+
+    def _unlike_range_message(self, model: TransportModel, exc) -> str:
+        """The message of an unlike-pair Ω* out of range: the pair, its ε12/k and the T it covers."""
+        lo, hi = (v * self.epsilon12_over_k for v in model.t_star_range)
+        return (f"pair {self.name} (ε12/k = {self.epsilon12_over_k:.4g} K): {exc}; "
+                f"the unlike pair is covered for {lo:.4g} K ≤ T ≤ {hi:.4g} K")
 
     def _pure_property(self, kind: str, i: int, T):
         """Pure gas i's ``kind`` ("viscosity" or "conductivity", translational) at the pair's order."""
@@ -332,10 +336,8 @@ class GasPair(PairConductivity):
         def pure(i):
             return _OmegaAt(self._pure_computed[i], t / (self.first, self.second)[i].epsilon_over_k,
                             lambda exc: f"pair {self.name}, pure {self.names[i]}: {exc}")
-        lo, hi = (v * self.epsilon12_over_k for v in self._pair_computed.t_star_range)
         unlike = _OmegaAt(self._pair_computed, t / self.epsilon12_over_k,
-                          lambda exc: f"pair {self.name} (ε12/k = {self.epsilon12_over_k:.4g} K): {exc}; "
-                                      f"the unlike pair is covered for {lo:.4g} K ≤ T ≤ {hi:.4g} K")
+                          lambda exc: self._unlike_range_message(self._pair_computed, exc))
         return {"11": pure(0), "22": pure(1), "12": unlike}
 
     def _diffusion_factor(self, t, x1):

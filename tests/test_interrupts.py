@@ -13,6 +13,19 @@ def _files(folder):
     return sorted(p.name for p in folder.rglob("*") if p.is_file()) if folder.exists() else []
 
 
+def _ctrl_c_when_replacing(monkeypatch, ending):
+    """Make the atomic writer's final rename raise KeyboardInterrupt for a target ending in
+    ``ending``; returns the real ``os.replace`` to put back."""
+    real_replace = atomic.os.replace
+
+    def stop(src, dst):
+        if str(dst).endswith(ending):
+            raise KeyboardInterrupt
+        return real_replace(src, dst)
+    monkeypatch.setattr(atomic.os, "replace", stop)
+    return real_replace
+
+
 def test_ctrl_c_during_sampling_prints_one_line(tmp_path, capsys, monkeypatch):
     table = write_viscosity_table(tmp_path / "visc.csv")
     real = LogLikelihood.__call__
@@ -36,14 +49,7 @@ def test_ctrl_c_during_sampling_prints_one_line(tmp_path, capsys, monkeypatch):
 
 def test_ctrl_c_while_writing_leaves_no_temporary_file_and_says_what_is_left(tmp_path, capsys, monkeypatch):
     table = write_viscosity_table(tmp_path / "visc.csv")
-    real_replace = atomic.os.replace
-
-    def stop_at_the_report(src, dst):
-        if str(dst).endswith(".html"):
-            raise KeyboardInterrupt
-        return real_replace(src, dst)
-
-    monkeypatch.setattr(atomic.os, "replace", stop_at_the_report)
+    real_replace = _ctrl_c_when_replacing(monkeypatch, ".html")
     out_dir = tmp_path / "fit"
     code, _, err = run(capsys, "fit", table, "--formula", "Ar", "--order", "1", "--out", out_dir)
     assert code == 130
@@ -87,13 +93,7 @@ def test_ctrl_c_in_an_inversion(tmp_path, capsys, monkeypatch):
     assert _files(tmp_path / "inv") == []
     monkeypatch.setattr(iterate, "tabulate_curve", real_tabulate)
 
-    real_replace = atomic.os.replace
-
-    def stop_at_the_record(src, dst):
-        if str(dst).endswith("inversion.json"):
-            raise KeyboardInterrupt
-        return real_replace(src, dst)
-    monkeypatch.setattr(atomic.os, "replace", stop_at_the_record)
+    real_replace = _ctrl_c_when_replacing(monkeypatch, "inversion.json")
     code, _, err = run(capsys, *argv)
     line, = err.strip().splitlines()
     assert code == 130 and "already written:" in line and "potential.csv" in line and "--force" in line

@@ -190,13 +190,14 @@ def _fit_data(T, mu, u, virial) -> FitData:
                    rows=np.arange(1, n + 1), file=np.full(n, "<inversion>", dtype=object), weighted=True)
 
 
-def _start(T, mu, u, molar_mass, virial, start):
-    """(potential, σ, ε/k, text) of the start; None means an LJ least-squares fit of the data."""
+def _start(T, mu, u, molar_mass, virial, start, label="given"):
+    """(potential, σ, ε/k, text) of the start, a given one's text headed by ``label``; None
+    means an LJ least-squares fit of the data."""
     if start is not None:
         potential, sigma, eps = start
         if not isinstance(potential, Potential) or not (sigma > 0 and eps > 0):
             raise FitError("start must be (Potential, sigma [m], epsilon_over_k [K]) with positive scales")
-        return potential, float(sigma), float(eps), f"given: {potential.describe()}, σ = {sigma / 1e-10:.4f} Å, " \
+        return potential, float(sigma), float(eps), f"{label}: {potential.describe()}, σ = {sigma / 1e-10:.4f} Å, " \
                                                      f"ε/k = {eps:.3f} K"
     gas = Gas(name="inversion", molar_mass=float(molar_mass))
     fit = fit_least_squares(_fit_data(T, mu, u, virial), gas, LennardJones(), order=SONINE_ORDER, internal=None)
@@ -224,7 +225,7 @@ def _vertical_change(new_r, new_u, old_r, old_u, slope):
 
 def invert_viscosity(T, viscosity, u_viscosity, *, molar_mass, start=None, virial=None,
                      max_iterations=10, tolerance=None, perturbed_sets=0, seed=20261203,
-                     quantum_virial=False, well_prior=None) -> InversionResult:
+                     quantum_virial=False, well_prior=None, start_label="given") -> InversionResult:
     """Invert dilute-gas viscosity (plus B(T)) into the pair potential, self-consistently.
 
     Parameters
@@ -250,6 +251,7 @@ def invert_viscosity(T, viscosity, u_viscosity, *, molar_mass, start=None, viria
         depth in every curve fit, for data that do not fix the well (viscosity without B(T),
         where the depth otherwise drifts with the iteration); recorded in the result, and its
         width propagates into ``curve_u`` and the perturbed sets.
+    start_label : what a given ``start`` is, the head of ``start_description`` (default "given").
 
     Returns
     -------
@@ -267,7 +269,7 @@ def invert_viscosity(T, viscosity, u_viscosity, *, molar_mass, start=None, viria
     T, mu, u_mu, virial = _check(T, viscosity, u_viscosity, molar_mass, virial)
     well_prior = _check_well_prior(well_prior)
     tol = DEFAULT_TOLERANCE if tolerance is None else float(tolerance)
-    potential, sigma, eps, start_text = _start(T, mu, u_mu, molar_mass, virial, start)
+    potential, sigma, eps, start_text = _start(T, mu, u_mu, molar_mass, virial, start, start_label)
     sigma_scale = sigma
     params = curve_from_potential(potential, sigma, eps)
     c6_prior = params.c6

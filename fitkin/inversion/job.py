@@ -15,8 +15,6 @@ polyatomic gas and self-diffusion are refused with a message, never ignored.
 """
 from __future__ import annotations
 
-import dataclasses
-
 from pathlib import Path
 
 import numpy as np
@@ -166,6 +164,11 @@ def _viscosity_points(data, conductivity, start, molar_mass):
     return tuple(np.concatenate([p[i] for p in parts]) for i in range(3)), (mu_k, u_k)
 
 
+#: How the terminal, the record and the report name a start chosen by name.
+_START_HEADS = {"best": "the lowest-AIC parametric fit", "lj": "the Lennard-Jones fit", "mie": "the Mie fit",
+                "exp6": "the exp-6 fit"}
+
+
 def run_inversion(tables, gas=None, *, formula=None, molar_mass=None, start="best", max_iterations=10,
                   tolerance=None, perturbed_sets=DEFAULT_PERTURBED, seed=20261203, quantum_virial=False,
                   well_prior="start", options: dict | None = None) -> InversionRun:
@@ -232,13 +235,11 @@ def run_inversion(tables, gas=None, *, formula=None, molar_mass=None, start="bes
     try:
         result = invert_viscosity(*points, molar_mass=M, start=start_potential, virial=virial,
                                   max_iterations=max_iterations, tolerance=tolerance, perturbed_sets=perturbed_sets,
-                                  seed=seed, quantum_virial=quantum_virial, well_prior=well)
+                                  seed=seed, quantum_virial=quantum_virial, well_prior=well,
+                                  start_label=_START_HEADS.get(start_name, start_label))
     except OutOfRangeError as exc:
         raise FitError(f"the temperatures {points[0].min():g}–{points[0].max():g} K cannot be inverted with this "
                        f"potential's collision integrals ({exc})") from None
-    how = {"best": "the lowest-AIC parametric fit", "lj": "the Lennard-Jones fit", "mie": "the Mie fit",
-           "exp6": "the exp-6 fit"}.get(start_name, start_label)
-    result = dataclasses.replace(result, start_description=result.start_description.replace("given", how, 1))
     visc = _arrays(data, "viscosity") or points
     T_visc = visc[0]
     curves = tuple(ParametricCurve(label=f[0], potential=f[1], sigma=f[2], epsilon_over_k=f[3],

@@ -193,7 +193,12 @@ def mixture_bracket_table(problem, order, mass_fraction1, kihara=False):
     m1 = float(mass_fraction1)
     if not 0.0 < m1 < 1.0:
         raise OutOfRangeError(f"mass fraction m1/(m1 + m2) must lie strictly between 0 and 1, got {m1!r}")
-    return _table(problem, int(order), round(m1, 14), bool(kihara))
+    return _table(*_table_key(problem, order, m1, kihara))
+
+
+def _table_key(problem, order, mass_fraction1, kihara):
+    """The cache key of a checked table: (problem, order, m1 rounded to 14 digits, kihara)."""
+    return problem, int(order), round(float(mass_fraction1), 14), bool(kihara)
 
 
 @lru_cache(maxsize=128)
@@ -251,18 +256,17 @@ def scaling_exponents(problem, order):
 
 
 def _matrix_plan(problem, order, mass_fraction1, kihara):
-    """Per collision type: (type, its (l, s) pairs, their matrices stacked as (P, n·n), the
+    """Per collision type: (type, its (l, s) pairs, their matrices stacked as (P, n, n), the
     exponents e1, e2 of x1, x2 of every element, the type's factor); cached by the table."""
     mixture_bracket_table(problem, order, mass_fraction1, kihara)   # checks the arguments
-    return _plan_of(problem, order, round(float(mass_fraction1), 14), bool(kihara))
+    return _plan_of(*_table_key(problem, order, mass_fraction1, kihara))
 
 
 @lru_cache(maxsize=128)
 def _plan_of(problem, order, m1, kihara):
-    table = _table(problem, order, m1, kihara)
     exps = np.array(scaling_exponents(problem, order))              # (n, 2)
     plan = []
-    for ctype, entries in table.items():
+    for ctype, entries in _table(problem, order, m1, kihara).items():
         (t1, t2), factor = _TYPE_WEIGHTS[ctype]
         e1 = t1 + exps[:, None, 0] + exps[None, :, 0]
         e2 = t2 + exps[:, None, 1] + exps[None, :, 1]
@@ -270,7 +274,7 @@ def _plan_of(problem, order, m1, kihara):
         if np.any(used & ((e1 < 0) | (e2 < 0))):
             raise ArithmeticError("a scaled mixture bracket would diverge in a tracer limit")
         pairs = tuple(entries)
-        stacked = np.stack([entries[pair].ravel() for pair in pairs])
+        stacked = np.stack([entries[pair] for pair in pairs])
         plan.append((ctype, pairs, stacked, np.where(used, e1, 0.0), np.where(used, e2, 0.0), factor))
     return tuple(plan)
 
@@ -300,7 +304,6 @@ def bracket_matrix(problem, order, mass_fraction1, omega, scale, x1, kihara=Fals
     for ctype, pairs, stacked, e1, e2, factor in _matrix_plan(problem, order, mass_fraction1, kihara):
         weight = factor * x[..., None, None] ** e1 * x2[..., None, None] ** e2
         values = np.broadcast_arrays(*(np.asarray(omega[ctype][pair], dtype=float) for pair in pairs))
-        n = math.isqrt(stacked.shape[-1])
-        summed = (np.stack(values, axis=-1) @ stacked).reshape(values[0].shape + (n, n))
+        summed = np.tensordot(np.stack(values, axis=-1), stacked, axes=1)      # Σ_(l,s) Ω*(l,s) matrix
         total = total + weight * scale[ctype] * summed
     return np.asarray(total)
